@@ -1,0 +1,81 @@
+/**
+ * The analysis stage: Study in, Results out. The point estimate comes first; each further analysis
+ * (a "stage") reads the shared context and adds its own section to the results. A stage whose inputs
+ * the study does not provide adds nothing. Pure apart from the optional progress callback.
+ */
+import type { Study } from '../study/types.js';
+import type { CompiledLogic } from '../logic/index.js';
+import { baseCase } from './case.js';
+import { evaluateEvents, type EventEvaluation } from './event-probability.js';
+import { buildLogicModel, type LogicModel } from './logic-model.js';
+import { compileCase, quantifyTops } from './quantify.js';
+import { describeStudy } from './results-parts.js';
+import type { EventResult, Results } from './results.js';
+
+export interface AnalyzeOptions {
+  /** Called now and then during long analyses (Monte Carlo): what, how far, out of how many. */
+  progress?: (label: string, done: number, total: number) => void;
+}
+
+/** What every stage may read: the study, its logic, the compiled base case and its numbers. */
+export interface AnalysisContext {
+  study: Study;
+  model: LogicModel;
+  compiled: CompiledLogic;
+  base: EventEvaluation;
+  results: Results;
+  options: AnalyzeOptions;
+}
+
+/** A further analysis: reads the context, returns the results sections it fills. */
+export type Stage = (ctx: AnalysisContext) => Partial<Results>;
+
+/** The stages, in the order they run; later issues add theirs here. */
+const STAGES: Stage[] = [];
+
+export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
+  const model = buildLogicModel(study);
+  const base = baseCase();
+  const evaluation = evaluateEvents(study, base);
+  const compiled = compileCase(study, model, base.switches);
+  const tops = quantifyTops(study, model, compiled, evaluation.probability);
+  const parts = describeStudy(study);
+  const results: Results = {
+    format: parts.format,
+    tool: parts.tool,
+    study: parts.study,
+    inputs: parts.inputs,
+    settings: parts.settings,
+    logic: parts.logic,
+    sources: parts.sources,
+    assumptions: parts.assumptions,
+    events: eventResults(study, evaluation),
+    parameters: parts.parameters,
+    tops,
+    warnings: parts.warnings,
+  };
+  const ctx: AnalysisContext = { study, model, compiled, base: evaluation, results, options };
+  for (const stage of STAGES) Object.assign(results, stage(ctx));
+  return results;
+}
+
+function eventResults(study: Study, evaluation: EventEvaluation): EventResult[] {
+  return study.events.map((e, i) => {
+    const r: EventResult = {
+      id: e.id,
+      title: e.title,
+      model: e.model,
+      probability: evaluation.probability[i]!,
+      parameters: evaluation.used[i]!,
+      parameter_keys: { ...e.fields },
+      assumptions: e.assumptions,
+    };
+    if (e.class) r.class = e.class;
+    const age = evaluation.ages[i];
+    if (age !== undefined) r.age_years = age;
+    if (e.installed) r.installed = e.installed;
+    if (e.renewed) r.renewed = e.renewed;
+    if (e.on !== undefined) r.on = e.on;
+    return r;
+  });
+}

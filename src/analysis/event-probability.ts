@@ -1,0 +1,47 @@
+/**
+ * Basic-event probabilities for a case: each event's model fields looked up through the case
+ * (scenario overrides, sampled values), its age moved to the case's year, then the failure model.
+ */
+import { modelProbability } from '../reliability/models/index.js';
+import type { Study } from '../study/types.js';
+import { ageInCase, fieldValue, type Case } from './case.js';
+
+/** Parameter value by key: the study's own, unless a sampler supplies another. */
+export type ParameterValues = (key: string) => number;
+
+export function studyValues(study: Study): ParameterValues {
+  const byKey = new Map(study.parameters.map((p) => [p.key, p.value]));
+  return (key) => byKey.get(key)!;
+}
+
+export interface EventEvaluation {
+  probability: Float64Array;
+  /** Field values each event used, for the report. */
+  used: Record<string, number>[];
+  ages: (number | undefined)[];
+}
+
+export function evaluateEvents(study: Study, c: Case, values: ParameterValues = studyValues(study)): EventEvaluation {
+  const n = study.events.length;
+  const probability = new Float64Array(n);
+  const used: Record<string, number>[] = [];
+  const ages: (number | undefined)[] = [];
+  study.events.forEach((e, i) => {
+    const fields: Record<string, number> = {};
+    for (const field of Object.keys(e.fields)) fields[field] = fieldValue(e, field, c, values)!;
+    const age = ageInCase(study, e, c);
+    const on = c.switches.get(e.id) ?? e.on;
+    const q = modelProbability(e.model, fields, {
+      ...(age !== undefined ? { ageYears: age } : {}),
+      exerciseBasis: study.settings.exercise_basis,
+      ...(on !== undefined ? { on } : {}),
+    });
+    if (!(q >= 0 && q <= 1)) {
+      throw new Error(`event '${e.id}' (${e.model}) gave probability ${q} from ${JSON.stringify(fields)}`);
+    }
+    probability[i] = q;
+    used.push(fields);
+    ages.push(age);
+  });
+  return { probability, used, ages };
+}

@@ -1,0 +1,83 @@
+/**
+ * `faultbook run STUDY`: read, analyse and render; every output is made in memory first and only
+ * then written, each file renamed into place, so a failed run leaves earlier outputs as they were.
+ */
+import { basename, resolve } from 'node:path';
+import { analyze } from '../analysis/analyze.js';
+import { StudyError } from '../study/errors.js';
+import { readStudy } from '../study/read.js';
+import { cutSetsCsv } from '../report/cutsets-csv.js';
+import { helpText, parseCommandArgs, type CommandSpec } from './args.js';
+import { EXIT, type Command } from './io.js';
+import { writeOutputs, type OutputFile } from './outputs.js';
+import { formatProbability, printWarnings } from './print.js';
+import { resultsJson } from '../report/results-json.js';
+
+const FORMATS = ['html', 'pdf', 'json', 'csv'] as const;
+type Format = (typeof FORMATS)[number];
+
+const spec: CommandSpec = {
+  usage: 'STUDY [--out DIR] [--format html,pdf,json,csv] [--paper a4|letter] [--quiet]',
+  summary: 'quantify a study and write its appendix (appendix.html, appendix.pdf, results.json, cutsets.csv)',
+  options: {
+    out: { type: 'string', value: 'DIR', help: 'output folder (default: out/<study folder name>)' },
+    format: { type: 'string', value: 'LIST', help: 'comma-separated: html, pdf, json, csv (default: all)' },
+    paper: { type: 'string', value: 'SIZE', help: 'a4 (default) or letter' },
+    quiet: { type: 'boolean', help: 'no progress or summary; errors and warnings only' },
+  },
+  positionals: ['STUDY'],
+};
+
+export function parseFormats(text: string | undefined): Set<Format> {
+  if (text === undefined) return new Set(FORMATS);
+  const asked = text.split(',').map((s) => s.trim().toLowerCase()).filter(Boolean);
+  const bad = asked.filter((f) => !(FORMATS as readonly string[]).includes(f));
+  if (bad.length || asked.length === 0) {
+    throw new StudyError(`unknown format${bad.length > 1 ? 's' : ''} '${bad.join(', ') || text}'`, undefined, `a comma-separated list of ${FORMATS.join(', ')}`);
+  }
+  return new Set(asked as Format[]);
+}
+
+export function parsePaper(text: string | undefined): 'a4' | 'letter' {
+  if (text === undefined || text.toLowerCase() === 'a4') return 'a4';
+  if (text.toLowerCase() === 'letter') return 'letter';
+  throw new StudyError(`unknown paper size '${text}'`, undefined, 'a4 or letter');
+}
+
+const run: Command = async (argv, io) => {
+  const args = parseCommandArgs('run', spec, argv);
+  if (args.help) {
+    io.stdout(helpText('run', spec));
+    return EXIT.ok;
+  }
+  const studyDir = args.positionals[0]!;
+  const formats = parseFormats(args.values.format as string | undefined);
+  const paper = parsePaper(args.values.paper as string | undefined);
+  const quiet = Boolean(args.values.quiet);
+  const outDir = resolve((args.values.out as string | undefined) ?? `out/${basename(resolve(studyDir))}`);
+
+  const study = readStudy(studyDir);
+  printWarnings(study.warnings, io);
+  const results = analyze(study);
+
+  const files: OutputFile[] = [];
+  if (formats.has('json')) files.push({ name: 'results.json', data: resultsJson(results) });
+  if (formats.has('csv')) files.push({ name: 'cutsets.csv', data: cutSetsCsv(results) });
+  if (formats.has('html') || formats.has('pdf')) {
+    // The report stage is loaded only when asked for: json/csv runs need none of its libraries.
+    const report = await import('../report/index.js');
+    const view = report.buildViewModel(results, study.files, { paper });
+    if (formats.has('html')) files.push({ name: 'appendix.html', data: report.renderHtml(view) });
+    if (formats.has('pdf')) files.push({ name: 'appendix.pdf', data: await report.renderPdf(view) });
+  }
+  const written = writeOutputs(outDir, files);
+  if (!quiet) {
+    for (const top of results.tops) {
+      io.stdout(`${top.id}: ${formatProbability(top.probability.exact)} (exact; rare-event ${formatProbability(top.probability.rare_event)}, MCUB ${formatProbability(top.probability.mcub)})\n`);
+    }
+    for (const w of written) io.stdout(`wrote ${w}\n`);
+  }
+  return EXIT.ok;
+};
+
+export const runCommand = { summary: 'quantify a study and write its appendix', run };

@@ -1,0 +1,37 @@
+/**
+ * assumptions.md: a Markdown file whose `## A1 Title` headings number the assumptions. The body of
+ * each runs to the next such heading and is kept as Markdown for the report to render.
+ */
+import { StudyError } from './errors.js';
+import type { Assumption } from './types.js';
+
+const HEADING = /^##\s+(A\d+)\b[\s.:–—-]*(.*)$/;
+
+export function parseAssumptions(text: string, file: string): Assumption[] {
+  const lines = text.split(/\r?\n/);
+  const out: Assumption[] = [];
+  let current: { a: Assumption; body: string[] } | undefined;
+  const close = () => {
+    if (current) {
+      current.a.body = current.body.join('\n').trim();
+      out.push(current.a);
+    }
+  };
+  lines.forEach((line, i) => {
+    const m = HEADING.exec(line);
+    if (m) {
+      close();
+      const id = m[1]!;
+      if (out.some((a) => a.id === id)) {
+        throw new StudyError(`assumption ${id} is defined twice`, { file, line: i + 1, col: 1 }, 'each assumption number once');
+      }
+      current = { a: { id, title: m[2]!.trim() || id, body: '', at: { file, line: i + 1, col: 1 } }, body: [] };
+    } else if (/^##\s/.test(line)) {
+      throw new StudyError(`a second-level heading that is not an assumption number`, { file, line: i + 1, col: 1 }, "'## A1 Title', '## A2 Title', …");
+    } else if (current) {
+      current.body.push(line);
+    }
+  });
+  close();
+  return out;
+}

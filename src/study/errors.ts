@@ -1,0 +1,32 @@
+import type { Pos } from './types.js';
+
+/**
+ * A problem with the user's input: a study file, a data file or the command's arguments.
+ * The command prints it as `file:line:col: message` plus the hint, exits 2, and never shows a stack.
+ */
+export class StudyError extends Error {
+  constructor(
+    message: string,
+    /** Where it is, when there is a place to point at. */
+    readonly at?: Pos,
+    /** What would be right, in the user's terms. */
+    readonly hint?: string,
+  ) {
+    super(message);
+    this.name = 'StudyError';
+  }
+
+  /** One or two lines for the terminal. */
+  describe(): string {
+    const where = this.at ? `${this.at.file}:${this.at.line}:${this.at.col}: ` : '';
+    return `${where}${this.message}${this.hint ? `\n  expected: ${this.hint}` : ''}`;
+  }
+}
+
+/** Several input problems found in one pass, reported together. */
+export class StudyErrors extends Error {
+  constructor(readonly errors: StudyError[]) {
+    super(errors.map((e) => e.describe()).join('\n'));
+    this.name = 'StudyErrors';
+  }
+}

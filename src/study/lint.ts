@@ -1,0 +1,48 @@
+/**
+ * Lint: things that are allowed but suspicious. Each warning is printed by `check` and `run` and
+ * listed in the appendix; none stops a run.
+ */
+import type { Study, Warning } from './types.js';
+
+/** Weibull shapes outside this band are rare for mechanical and electrical equipment (common practice, no source). */
+const SHAPE_BAND: [number, number] = [0.5, 6];
+
+export function lint(study: Study): Warning[] {
+  const out: Warning[] = [];
+  const param = new Map(study.parameters.map((p) => [p.key, p]));
+  const used = new Set<string>();
+  for (const g of study.gates) for (const i of g.inputs) used.add(i);
+  for (const g of study.commonCause) for (const m of g.members) used.add(m);
+  for (const e of study.events) {
+    if (!used.has(e.id)) out.push({ code: 'unused-event', message: `basic event '${e.id}' is not an input of any gate`, at: e.at });
+  }
+  const reachable = new Set<string>();
+  const byId = new Map(study.gates.map((g) => [g.id, g]));
+  const stack = study.tops.map((t) => t.gate);
+  while (stack.length) {
+    const id = stack.pop()!;
+    if (reachable.has(id)) continue;
+    reachable.add(id);
+    for (const i of byId.get(id)?.inputs ?? []) stack.push(i);
+  }
+  for (const g of study.gates) {
+    if (!reachable.has(g.id)) out.push({ code: 'unreachable-gate', message: `gate '${g.id}' is not under any top event`, at: g.at });
+  }
+  for (const p of study.parameters) {
+    if (!p.source) out.push({ code: 'unsourced', message: `'${p.key}' = ${p.written} cites no source`, at: p.at });
+    if (p.field === 'shape' && (p.value < SHAPE_BAND[0] || p.value > SHAPE_BAND[1])) {
+      out.push({ code: 'shape-band', message: `'${p.key}' = ${p.written}: a Weibull shape outside ${SHAPE_BAND[0]}–${SHAPE_BAND[1]} is unusual for this equipment; check the source`, at: p.at });
+    }
+  }
+  for (const e of study.events) {
+    const key = e.fields.exercise;
+    if (key && e.ageYears !== undefined && param.get(key)!.value > e.ageYears) {
+      out.push({ code: 'exercise-over-age', message: `event '${e.id}': exercise interval ${param.get(key)!.written} is longer than its age at as_of (${e.ageYears.toFixed(2)} years)`, at: e.at });
+    }
+  }
+  const cited = new Set(study.parameters.map((p) => p.source).filter((s): s is string => Boolean(s)));
+  for (const s of study.sources) {
+    if (!cited.has(s.id)) out.push({ code: 'uncited-source', message: `source '${s.id}' is cited by no parameter`, at: s.at });
+  }
+  return out;
+}

@@ -1,0 +1,97 @@
+/**
+ * Reading a study folder from disk: the only place in study/ that touches the file system. Files are
+ * read once, hashed (for the manifest) and handed on as text; data paths are confined to the folder.
+ */
+import { createHash } from 'node:crypto';
+import { existsSync, readFileSync, realpathSync, statSync } from 'node:fs';
+import { isAbsolute, join, relative, resolve, sep } from 'node:path';
+import { parseAssumptions } from './assumptions.js';
+import { buildStudy } from './build.js';
+import { StudyError, StudyErrors } from './errors.js';
+import { fitFromFile } from './fits.js';
+import { checkStructure, type StudyFileKind } from './schema.js';
+import type { InputFile, Pos, Study } from './types.js';
+import { parseYamlFile, type YamlFile } from './yaml.js';
+
+/** A study file larger than this is refused before it is read (a real study is kilobytes). */
+export const MAX_FILE_BYTES = 8 * 1024 * 1024;
+
+const YAML_FILES: { name: string; kind: StudyFileKind }[] = [
+  { name: 'study.yaml', kind: 'study' },
+  { name: 'logic.yaml', kind: 'logic' },
+  { name: 'events.yaml', kind: 'events' },
+  { name: 'sources.yaml', kind: 'sources' },
+];
+
+export function sha256(data: string | Buffer): string {
+  return createHash('sha256').update(data).digest('hex');
+}
+
+export function readStudy(folder: string): Study {
+  const root = resolve(folder);
+  if (!existsSync(root) || !statSync(root).isDirectory()) {
+    throw new StudyError(`study folder not found: ${folder}`, undefined, 'the path of a folder that holds study.yaml');
+  }
+  if (!existsSync(join(root, 'study.yaml'))) {
+    throw new StudyError(`no study.yaml in ${folder}`, undefined, "a study folder with study.yaml at its top (run 'faultbook new DIR' for a starter)");
+  }
+  const files: InputFile[] = [];
+  const readText = (rel: string, at?: Pos): string => {
+    const full = confine(root, rel, at);
+    const size = statSync(full).size;
+    if (size > MAX_FILE_BYTES) {
+      throw new StudyError(`${rel} is ${(size / 1048576).toFixed(1)} MiB, larger than a study file may be`, at ?? { file: rel, line: 1, col: 1 }, `a file under ${MAX_FILE_BYTES / 1048576} MiB`);
+    }
+    const buf = readFileSync(full);
+    const text = buf.toString('utf8');
+    if (text.includes('\u0000')) throw new StudyError(`${rel} is not a text file`, at ?? { file: rel, line: 1, col: 1 }, 'UTF-8 text');
+    if (!files.some((f) => f.path === rel)) files.push({ path: rel, sha256: sha256(buf), text });
+    return text;
+  };
+
+  const yamlFiles: YamlFile[] = [];
+  const structureErrors: StudyError[] = [];
+  for (const { name, kind } of YAML_FILES) {
+    if (!existsSync(join(root, name))) continue;
+    const file = parseYamlFile(name, readText(name));
+    if (file.data === null || typeof file.data !== 'object' || Array.isArray(file.data)) {
+      throw new StudyError(`${name} must be a mapping of sections`, file.at([]), kind === 'study' ? "'format: faultbook/1', 'title: …', 'as_of: …' and so on" : 'section names with their entries, e.g. "gates:"');
+    }
+    structureErrors.push(...checkStructure(kind, file));
+    yamlFiles.push(file);
+  }
+  if (structureErrors.length) throw structureErrors.length === 1 ? structureErrors[0]! : new StudyErrors(structureErrors);
+
+  const assumptions = existsSync(join(root, 'assumptions.md')) ? parseAssumptions(readText('assumptions.md'), 'assumptions.md') : [];
+  const study = buildStudy({
+    root,
+    yamlFiles,
+    assumptions,
+    files,
+    fitted: (fit, field, at) => fitFromFile(fit, field, at, (rel, where) => readText(rel, where)),
+  });
+  // The manifest lists files in a fixed order, whatever order they were read in.
+  study.files.sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0));
+  return study;
+}
+
+/**
+ * A path a study names must stay inside the study folder: no absolute paths, no `..` out of it,
+ * no symbolic link that leads out.
+ */
+export function confine(root: string, rel: string, at?: Pos): string {
+  const where = at ?? { file: rel, line: 1, col: 1 };
+  if (isAbsolute(rel) || /^[A-Za-z]:[\\/]/.test(rel)) {
+    throw new StudyError(`'${rel}' is an absolute path`, where, "a path inside the study folder, e.g. 'data/motor-life.csv'");
+  }
+  const full = resolve(root, rel);
+  const inside = (p: string, base: string) => {
+    const r = relative(base, p);
+    return r !== '' && !r.startsWith('..') && !isAbsolute(r) && !r.split(sep).includes('..');
+  };
+  if (!inside(full, root)) throw new StudyError(`'${rel}' points outside the study folder`, where, "a path inside the study folder, e.g. 'data/motor-life.csv'");
+  if (!existsSync(full)) throw new StudyError(`file not found: ${rel}`, where, 'a file that exists inside the study folder');
+  if (!inside(realpathSync(full), realpathSync(root))) throw new StudyError(`'${rel}' leads outside the study folder through a link`, where, 'a real file inside the study folder');
+  if (!statSync(full).isFile()) throw new StudyError(`'${rel}' is not a file`, where, 'a file inside the study folder');
+  return full;
+}

@@ -1,0 +1,106 @@
+/**
+ * Structure checks against the published JSON Schemas in schema/ (the same files editors use), with
+ * each complaint turned into a StudyError that points at the offending line and says what would fit.
+ */
+import AjvModule, { type ErrorObject, type ValidateFunction } from 'ajv';
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { packageRoot } from '../package.js';
+import { StudyError } from './errors.js';
+import type { YamlFile, PathSegment } from './yaml.js';
+
+// ajv is CommonJS: under NodeNext its class arrives as the default export's `default`.
+const Ajv = AjvModule.default;
+
+const SCHEMA_BASE = 'https://faultbook.invalid/schema/';
+export type StudyFileKind = 'study' | 'logic' | 'events' | 'sources';
+
+let validators: Map<StudyFileKind, ValidateFunction> | undefined;
+
+function load(): Map<StudyFileKind, ValidateFunction> {
+  if (validators) return validators;
+  const ajv = new Ajv({ allErrors: true, strict: false });
+  const dir = join(packageRoot, 'schema');
+  for (const name of readdirSync(dir).filter((f) => f.endsWith('.schema.json')).sort()) {
+    ajv.addSchema(JSON.parse(readFileSync(join(dir, name), 'utf8')) as object);
+  }
+  validators = new Map();
+  for (const kind of ['study', 'logic', 'events', 'sources'] as const) {
+    validators.set(kind, ajv.getSchema(`${SCHEMA_BASE}${kind}.schema.json`)!);
+  }
+  return validators;
+}
+
+/** Every structural problem of one file, most useful first; empty when it fits. */
+export function checkStructure(kind: StudyFileKind, file: YamlFile): StudyError[] {
+  const validate = load().get(kind)!;
+  if (validate(file.data)) return [];
+  return translate(validate.errors ?? [], file);
+}
+
+function pathOf(instancePath: string): PathSegment[] {
+  if (!instancePath) return [];
+  return instancePath
+    .slice(1)
+    .split('/')
+    .map((s) => s.replace(/~1/g, '/').replace(/~0/g, '~'))
+    .map((s) => (/^\d+$/.test(s) ? Number(s) : s));
+}
+
+function describePath(path: PathSegment[]): string {
+  return path.length === 0 ? 'the file' : `'${path.join('.')}'`;
+}
+
+/**
+ * ajv reports every failed branch of a oneOf; the user wants one line per place. Keep the most
+ * specific error per instance path: an unknown key beats a type mismatch beats "no branch matched".
+ */
+function translate(errors: ErrorObject[], file: YamlFile): StudyError[] {
+  const rank: Record<string, number> = { additionalProperties: 0, required: 1, enum: 2, const: 2, pattern: 3, type: 4, minimum: 5, maximum: 5 };
+  const byPath = new Map<string, ErrorObject>();
+  for (const e of errors) {
+    const key = e.instancePath;
+    const prev = byPath.get(key);
+    if (!prev || (rank[e.keyword] ?? 9) < (rank[prev.keyword] ?? 9)) byPath.set(key, e);
+  }
+  // A oneOf failure at a parent is only noise when a child path already explains it.
+  const paths = [...byPath.keys()];
+  const out: StudyError[] = [];
+  for (const [instancePath, e] of byPath) {
+    if (e.keyword === 'oneOf' && paths.some((p) => p !== instancePath && p.startsWith(instancePath + '/'))) continue;
+    out.push(toStudyError(e, pathOf(instancePath), file));
+  }
+  return out;
+}
+
+function toStudyError(e: ErrorObject, path: PathSegment[], file: YamlFile): StudyError {
+  const params = e.params as Record<string, unknown>;
+  const where = describePath(path);
+  switch (e.keyword) {
+    case 'additionalProperties': {
+      const key = String(params.additionalProperty);
+      const allowed = allowedKeys(e);
+      return new StudyError(`unknown key '${key}' in ${where}`, file.keyAt([...path, key]), allowed ? `one of: ${allowed}` : 'remove it or check its spelling');
+    }
+    case 'required':
+      return new StudyError(`${where} is missing '${String(params.missingProperty)}'`, file.at(path), `add '${String(params.missingProperty)}:'`);
+    case 'enum':
+      return new StudyError(`${where} has a value that is not allowed`, file.at(path), `one of: ${(params.allowedValues as unknown[]).map(String).join(', ')}`);
+    case 'const':
+      return new StudyError(`${where} must be ${JSON.stringify(params.allowedValue)}`, file.at(path), JSON.stringify(params.allowedValue));
+    case 'type':
+      return new StudyError(`${where} has the wrong type`, file.at(path), `a value of type ${String(params.type).replace(',', ' or ')}`);
+    case 'pattern':
+      return new StudyError(`${where} is not in the expected form`, file.at(path), (e.parentSchema as { description?: string } | undefined)?.description ?? `text matching ${String(params.pattern)}`);
+    case 'oneOf':
+      return new StudyError(`${where} is not a valid parameter`, file.at(path), (e.parentSchema as { description?: string } | undefined)?.description ?? 'see the study format in the README');
+    default:
+      return new StudyError(`${where} ${e.message ?? 'is not valid'}`, file.at(path), (e.parentSchema as { description?: string } | undefined)?.description ?? 'see the study format in the README');
+  }
+}
+
+function allowedKeys(e: ErrorObject): string | undefined {
+  const schema = e.parentSchema as { properties?: Record<string, unknown> } | undefined;
+  const keys = schema?.properties ? Object.keys(schema.properties) : [];
+  return keys.length ? keys.join(', ') : undefined;
+}

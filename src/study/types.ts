@@ -1,0 +1,227 @@
+/**
+ * The typed, validated study: what `readStudy` returns and everything downstream consumes.
+ *
+ * Canonical units, chosen once so no later stage converts: durations in years (1 year = 365.25
+ * days), rates per year, probabilities as fractions. `written` keeps the text as the study gave it,
+ * for the report.
+ */
+
+/** Where something was written: 1-based line and column in a study file (path relative to the study). */
+export interface Pos {
+  file: string;
+  line: number;
+  col: number;
+}
+
+export type Quantity = 'probability' | 'rate' | 'duration' | 'number';
+
+/** State-of-knowledge distribution of a parameter, in the parameter's canonical unit. */
+export type Uncertainty =
+  | { kind: 'lognormal'; median: number; ef: number }
+  | { kind: 'normal'; mean: number; sd: number; min?: number; max?: number }
+  | { kind: 'uniform'; min: number; max: number }
+  | { kind: 'triangular'; min: number; mode: number; max: number }
+  | { kind: 'beta'; a: number; b: number }
+  | { kind: 'gamma'; shape: number; scale: number }
+  /** Shape and scale of one Weibull fit, sampled jointly from the fit's covariance (log scale). */
+  | { kind: 'fit'; fit: string; which: 'shape' | 'scale' | 'location' };
+
+/**
+ * One number of the study. Class parameters are shared by every event of the class (and so share
+ * one sample per Monte Carlo trial); an event's own field overrides the class's.
+ */
+export interface Parameter {
+  /** `<owner>.<field>`, e.g. `hoist-motor.shape` or `hoist-1-motor.exercise`. Unique in a study. */
+  key: string;
+  owner: string;
+  ownerKind: 'class' | 'event' | 'group';
+  field: string;
+  quantity: Quantity;
+  /** In canonical units. */
+  value: number;
+  /** As written in the study, e.g. `75 years`. */
+  written: string;
+  source?: string;
+  /** Where in the source: table, page, clause. */
+  note?: string;
+  /** Low and high values for one-at-a-time sensitivity, canonical units. */
+  range?: [number, number];
+  uncertainty?: Uncertainty;
+  /** Set when the value comes from a life-data fit (`fits:` id). */
+  fit?: string;
+  at: Pos;
+}
+
+export type ModelKind = 'fixed' | 'rate' | 'repairable' | 'tested' | 'demand' | 'weibull' | 'switch';
+
+/** Model fields that hold numbers, by model. Optional ones may be absent. */
+export const MODEL_FIELDS: Record<ModelKind, { required: string[]; optional: string[] }> = {
+  fixed: { required: ['probability'], optional: [] },
+  rate: { required: ['rate', 'exposure'], optional: [] },
+  repairable: { required: ['rate', 'repair'], optional: [] },
+  tested: { required: ['rate', 'interval'], optional: ['test_duration', 'repair'] },
+  demand: { required: ['probability'], optional: ['rate', 'interval'] },
+  weibull: { required: ['shape', 'scale'], optional: ['location', 'exercise', 'repair'] },
+  switch: { required: [], optional: [] },
+};
+
+export interface BasicEvent {
+  id: string;
+  title: string;
+  model: ModelKind;
+  class?: string;
+  /** Model field → parameter key (the event's own, or its class's). */
+  fields: Record<string, string>;
+  /** Switch (house) events only: the base-case state. */
+  on?: boolean;
+  /** Weibull only: ISO dates as written, and the age at `as_of` in years (from `renewed`, else `installed`). */
+  installed?: string;
+  renewed?: string;
+  ageYears?: number;
+  assumptions: string[];
+  at: Pos;
+}
+
+export interface Gate {
+  id: string;
+  title?: string;
+  op: 'any' | 'all' | 'atleast' | 'not';
+  k?: number;
+  inputs: string[];
+  at: Pos;
+}
+
+export interface Top {
+  id: string;
+  title: string;
+  gate: string;
+  at: Pos;
+}
+
+export interface Source {
+  id: string;
+  title: string;
+  /** Free text: author, year, publisher, document number. */
+  reference?: string;
+  /** True for the invented sources of a demo study. */
+  invented?: boolean;
+  note?: string;
+  at: Pos;
+}
+
+export interface Assumption {
+  /** `A1`, `A2`, … from the `## A1 …` headings of assumptions.md. */
+  id: string;
+  title: string;
+  /** Markdown body, rendered by the report. */
+  body: string;
+  at: Pos;
+}
+
+/** A change to the base case, from logic.yaml `scenarios:`. */
+export interface Scenario {
+  id: string;
+  title: string;
+  /** Parameter key → new value in canonical units (with the text as written). */
+  set: { key: string; value: number; written: string; at: Pos }[];
+  /** Switch event id → state. */
+  switches: { event: string; on: boolean; at: Pos }[];
+  /** Planned renewals (for the forecast): event id → ISO date; age restarts then. */
+  renew: { event: string; date: string; at: Pos }[];
+  at: Pos;
+}
+
+export interface Settings {
+  /** Cut sets below this probability are not listed. */
+  cutoff: number;
+  /** Cut sets of more events than this are not listed. */
+  max_order: number;
+  samples: number;
+  seed: number;
+  /** Forecast horizon, years. */
+  horizon: number;
+  /** Decision-diagram node budget. */
+  max_nodes: number;
+  /** How a Weibull `exercise` interval turns into a probability: at its end (default) or averaged over it. */
+  exercise_basis: 'end' | 'average';
+  /** Default low/high factor for sensitivity of parameters that state no `range`. */
+  sensitivity_factor: number;
+  /** When the decision diagram outgrows `max_nodes`: stop with a message, or fall back to cut-set bounds. */
+  on_node_budget: 'stop' | 'bounds';
+  /** Plain random sampling or Latin hypercube for the uncertainty analysis. */
+  sampling: 'monte-carlo' | 'latin-hypercube';
+}
+
+export interface StudyMeta {
+  format: string;
+  title: string;
+  facility: string;
+  revision: string;
+  status: 'draft' | 'issued';
+  issued?: string;
+  prepared_by: string[];
+  reviewed_by: string[];
+  as_of: string;
+  /** Markdown: purpose and scope, system description. */
+  scope?: string;
+  description?: string;
+}
+
+/** A file that went into the study, for the manifest and the inputs annex. */
+export interface InputFile {
+  path: string;
+  sha256: string;
+  text: string;
+}
+
+export interface Warning {
+  code: string;
+  message: string;
+  at?: Pos;
+}
+
+export interface Study {
+  /** Absolute path of the study folder (never written into outputs). */
+  root: string;
+  meta: StudyMeta;
+  settings: Settings;
+  tops: Top[];
+  gates: Gate[];
+  events: BasicEvent[];
+  parameters: Parameter[];
+  sources: Source[];
+  assumptions: Assumption[];
+  scenarios: Scenario[];
+  fits: FitSpec[];
+  commonCause: CommonCauseGroup[];
+  files: InputFile[];
+  warnings: Warning[];
+}
+
+/** A life-data fit from events.yaml `fits:`; run while the study is read, so its numbers are parameters. */
+export interface FitSpec {
+  id: string;
+  /** Path inside the study folder, as written. */
+  data: string;
+  method: 'mle' | 'rank';
+  /** Also fit a location (failure-free time) parameter. */
+  threeParameter: boolean;
+  /** Unit of the `life` column when it is a bare number (default years). */
+  lifeUnit: string;
+  /** Confidence level for the bounds shown, e.g. 0.9. */
+  confidence: number;
+  at: Pos;
+}
+
+/** A common-cause group from logic.yaml `common_cause:` (NUREG/CR-5485 parametric models). */
+export interface CommonCauseGroup {
+  id: string;
+  title?: string;
+  members: string[];
+  method: 'beta' | 'mgl' | 'alpha';
+  /** Alpha-factor only: how the members are tested. */
+  testing: 'staggered' | 'non-staggered';
+  /** Method parameter name (`beta`; `beta`,`gamma`,`delta`…; `alpha1`…`alphaM`) → parameter key. */
+  fields: Record<string, string>;
+  at: Pos;
+}
