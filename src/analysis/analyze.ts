@@ -7,6 +7,7 @@ import type { Study } from '../study/types.js';
 import type { CompiledLogic } from '../logic/index.js';
 import { baseCase } from './case.js';
 import { evaluateEvents, type EventEvaluation } from './event-probability.js';
+import { fitsStage } from './fits.js';
 import { buildLogicModel, type LogicModel } from './logic-model.js';
 import { compileCase, quantifyTops } from './quantify.js';
 import { describeStudy } from './results-parts.js';
@@ -31,7 +32,7 @@ export interface AnalysisContext {
 export type Stage = (ctx: AnalysisContext) => Partial<Results>;
 
 /** The stages, in the order they run; later issues add theirs here. */
-const STAGES: Stage[] = [];
+const STAGES: Stage[] = [fitsStage];
 
 export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
   const model = buildLogicModel(study);

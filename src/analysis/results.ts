@@ -129,6 +129,45 @@ export interface ForecastResult {
   years: { year: number; date: string; tops: Record<string, number> }[];
 }
 
+export interface FitBound {
+  lower: number;
+  upper: number;
+}
+
+export interface FitResult {
+  id: string;
+  data: string;
+  group?: string;
+  method: 'mle' | 'rank';
+  /** "fitted from data/x.csv: 14 failures, 61 suspensions, maximum likelihood". */
+  provenance: string;
+  source?: string;
+  note?: string;
+  rows: number;
+  n: number;
+  failures: number;
+  suspensions: number;
+  shape: number;
+  /** Years. */
+  scale: number;
+  location?: number;
+  b10: number;
+  /** One-sided level of each bound (e.g. 0.9). */
+  level: number;
+  bounds: { shape: FitBound; scale: FitBound; b10: FitBound };
+  /** Covariance of (ln shape, ln scale). */
+  covariance_log: [[number, number], [number, number]];
+  log_likelihood: number;
+  goodness_of_fit: Record<string, number | string | boolean>;
+  /** Median-rank plotting positions of the failures: life (years) and F. */
+  points: { t: number; F: number }[];
+  /** The fitted line and its bounds on F(t), at log-spaced lives across the data. */
+  curve: { t: number; F: number; lower: number; upper: number }[];
+  warnings: string[];
+  /** Parameter keys that take their value from this fit. */
+  used_by: string[];
+}
+
 export interface Results {
   format: 'faultbook-results/1';
   tool: { name: 'faultbook'; version: string };
@@ -166,6 +205,6 @@ export interface Results {
   common_cause?: unknown[];
   gate_counts?: unknown[];
   event_trees?: unknown[];
-  /** Filled by life-data fitting. */
-  fits?: unknown[];
+  /** Life-data fits (events.yaml `fits:`), with what the probability plot needs. */
+  fits?: FitResult[];
 }

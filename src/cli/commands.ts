@@ -1,11 +1,13 @@
 /** The subcommands, in the order `faultbook --help` lists them. */
 import type { Command } from './io.js';
 import { checkCommand } from './check.js';
+import { fitCommand } from './fit.js';
 import { newCommand } from './new.js';
 import { runCommand } from './run.js';
 
 export const commands: Record<string, { summary: string; run: Command }> = {
   run: runCommand,
   check: checkCommand,
+  fit: fitCommand,
   new: newCommand,
 };

@@ -6,6 +6,7 @@
 import { parseDate, yearsBetween } from '../reliability/units.js';
 import { StudyError, StudyErrors } from './errors.js';
 import { checkLogic } from './check-logic.js';
+import { fitProvenance, fittedValue } from './fits.js';
 import { lint } from './lint.js';
 import { readParameter, readQuantity, checkDomain, quantityOfField } from './quantities.js';
 import { entriesOf, mergeSections, type Sections } from './sections.js';
@@ -42,15 +43,15 @@ export const DEFAULT_SETTINGS: Settings = {
   sampling: 'monte-carlo',
 };
 
-/** Fitted parameter values, supplied by the reader (fitting reads data files). */
-export type FitLookup = (fit: FitSpec, field: string, at: Pos) => { value: number; written: string };
+/** Runs one fit (the reader supplies it: fitting reads data files). */
+export type FitRunner = (fit: FitSpec) => void;
 
 export interface BuildInput {
   root: string;
   yamlFiles: YamlFile[];
   assumptions: Assumption[];
   files: InputFile[];
-  fitted: FitLookup;
+  runFit: FitRunner;
 }
 
 export function buildStudy(input: BuildInput): Study {
@@ -78,22 +79,31 @@ export function buildStudy(input: BuildInput): Study {
     return s;
   });
 
-  const fits = entriesOf(sections, 'fits').map(({ id, raw, file }): FitSpec => ({
-    id,
-    data: String(raw.data),
-    method: raw.method === 'rank' ? 'rank' : 'mle',
-    threeParameter: raw.location === true,
-    lifeUnit: typeof raw.life_unit === 'string' ? raw.life_unit : 'years',
-    confidence: typeof raw.confidence === 'number' ? raw.confidence : 0.9,
-    at: file.keyAt(['fits', id]),
-  }));
-  const fitSources = new Map(entriesOf(sections, 'fits').map(({ id, raw }) => [id, { source: raw.source, note: raw.note }]));
+  const fits = entriesOf(sections, 'fits').map(({ id, raw, file }): FitSpec => {
+    const f: FitSpec = {
+      id,
+      data: String(raw.data),
+      method: raw.method === 'rank' ? 'rank' : 'mle',
+      threeParameter: raw.location === true,
+      lifeUnit: typeof raw.life_unit === 'string' ? raw.life_unit : 'years',
+      confidence: typeof raw.confidence === 'number' ? raw.confidence : 0.9,
+      at: file.at(['fits', id, 'data']),
+    };
+    if (typeof raw.group === 'string') f.group = raw.group;
+    if (typeof raw.source === 'string') f.source = raw.source;
+    if (typeof raw.note === 'string') f.note = raw.note;
+    return f;
+  });
+  // Every fit runs, used or not, so bad records surface as errors either way.
+  for (const f of fits) attempt(() => input.runFit(f));
+  const fitSources = new Map(fits.map((f) => [f.id, f]));
 
   const parameters: Parameter[] = [];
   const fittedLookup = (fitId: string, field: string, at: Pos) => {
     const fit = fits.find((f) => f.id === fitId);
     if (!fit) throw new StudyError(`unknown fit '${fitId}'`, at, fits.length ? `one of the fits: ${fits.map((f) => f.id).join(', ')}` : "a fit declared under 'fits:' in events.yaml");
-    return input.fitted(fit, field, at);
+    if (!fit.result) throw new StudyError(`fit '${fitId}' could not be made (see the error for its data file)`, at, 'a fit whose data file reads and fits');
+    return fittedValue(fit, field, at);
   };
 
   // Classes: each numeric field becomes one shared parameter.
@@ -185,10 +195,13 @@ function numericFields(raw: Record<string, unknown>): string[] {
   return Object.keys(raw).filter((k) => all.has(k));
 }
 
-function annotateFit(p: Parameter, fitSources: Map<string, { source: unknown; note: unknown }>): void {
+/** A fitted parameter cites its fit's source and says where its value came from. */
+function annotateFit(p: Parameter, fits: Map<string, FitSpec>): void {
   if (!p.fit) return;
-  const s = fitSources.get(p.fit);
-  if (!p.source && typeof s?.source === 'string') p.source = s.source;
+  const f = fits.get(p.fit);
+  if (!f?.result) return;
+  if (!p.source && f.source) p.source = f.source;
+  p.note = p.note ? `${p.note}; ${fitProvenance(f)}` : fitProvenance(f);
 }
 
 function readMeta(sections: Sections): StudyMeta {
@@ -235,7 +248,7 @@ function readEvent(
   classes: Map<string, { model?: ModelKind; fields: Map<string, string>; assumptions: string[]; source?: string; title?: string; at: Pos }>,
   parameters: Parameter[],
   fitted: (fitId: string, field: string, at: Pos) => { value: number; written: string },
-  fitSources: Map<string, { source: unknown; note: unknown }>,
+  fitSources: Map<string, FitSpec>,
   asOf: string | undefined,
 ): BasicEvent {
   const at = file.keyAt(['events', id]);

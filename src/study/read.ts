@@ -8,7 +8,7 @@ import { isAbsolute, join, relative, resolve, sep } from 'node:path';
 import { parseAssumptions } from './assumptions.js';
 import { buildStudy } from './build.js';
 import { StudyError, StudyErrors } from './errors.js';
-import { fitFromFile } from './fits.js';
+import { runFit } from './fits.js';
 import { checkStructure, type StudyFileKind } from './schema.js';
 import type { InputFile, Pos, Study } from './types.js';
 import { parseYamlFile, type YamlFile } from './yaml.js';
@@ -68,7 +68,7 @@ export function readStudy(folder: string): Study {
     yamlFiles,
     assumptions,
     files,
-    fitted: (fit, field, at) => fitFromFile(fit, field, at, (rel, where) => readText(rel, where)),
+    runFit: (fit) => void runFit(fit, readText),
   });
   // The manifest lists files in a fixed order, whatever order they were read in.
   study.files.sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0));

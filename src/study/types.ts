@@ -180,6 +180,8 @@ export interface Warning {
   at?: Pos;
 }
 
+import type { WeibullFit } from '../reliability/fit/index.js';
+
 export interface Study {
   /** Absolute path of the study folder (never written into outputs). */
   root: string;
@@ -201,6 +203,14 @@ export interface Study {
 /** A life-data fit from events.yaml `fits:`; run while the study is read, so its numbers are parameters. */
 export interface FitSpec {
   id: string;
+  /** Fit only the rows of this group (the CSV's `group` column). */
+  group?: string;
+  source?: string;
+  note?: string;
+  /** Set by the reader: the fit itself (estimates, bounds, covariance, plotting positions). */
+  result?: WeibullFit;
+  /** Set by the reader: rows in the file, excluded ones too. */
+  rows?: number;
   /** Path inside the study folder, as written. */
   data: string;
   method: 'mle' | 'rank';
