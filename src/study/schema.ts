@@ -6,6 +6,7 @@ import AjvModule, { type ErrorObject, type ValidateFunction } from 'ajv';
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { packageRoot } from '../package.js';
+import { suggest } from './check-logic.js';
 import { StudyError } from './errors.js';
 import type { YamlFile, PathSegment } from './yaml.js';
 
@@ -19,7 +20,8 @@ let validators: Map<StudyFileKind, ValidateFunction> | undefined;
 
 function load(): Map<StudyFileKind, ValidateFunction> {
   if (validators) return validators;
-  const ajv = new Ajv({ allErrors: true, strict: false });
+  // verbose: errors carry their schema, so a message can list the keys that would have fitted.
+  const ajv = new Ajv({ allErrors: true, strict: false, verbose: true });
   const dir = join(packageRoot, 'schema');
   for (const name of readdirSync(dir).filter((f) => f.endsWith('.schema.json')).sort()) {
     ajv.addSchema(JSON.parse(readFileSync(join(dir, name), 'utf8')) as object);
@@ -47,8 +49,8 @@ function pathOf(instancePath: string): PathSegment[] {
     .map((s) => (/^\d+$/.test(s) ? Number(s) : s));
 }
 
-function describePath(path: PathSegment[]): string {
-  return path.length === 0 ? 'the file' : `'${path.join('.')}'`;
+function describePath(path: PathSegment[], file: YamlFile): string {
+  return path.length === 0 ? `the top level of ${file.file}` : `'${path.join('.')}'`;
 }
 
 /**
@@ -75,12 +77,12 @@ function translate(errors: ErrorObject[], file: YamlFile): StudyError[] {
 
 function toStudyError(e: ErrorObject, path: PathSegment[], file: YamlFile): StudyError {
   const params = e.params as Record<string, unknown>;
-  const where = describePath(path);
+  const where = describePath(path, file);
   switch (e.keyword) {
     case 'additionalProperties': {
       const key = String(params.additionalProperty);
       const allowed = allowedKeys(e);
-      return new StudyError(`unknown key '${key}' in ${where}`, file.keyAt([...path, key]), allowed ? `one of: ${allowed}` : 'remove it or check its spelling');
+      return new StudyError(`unknown key '${key}' in ${where}`, file.keyAt([...path, key]), allowed.length ? suggest(key, allowed, `one of: ${allowed.join(', ')}`) : 'remove it or check its spelling');
     }
     case 'required':
       return new StudyError(`${where} is missing '${String(params.missingProperty)}'`, file.at(path), `add '${String(params.missingProperty)}:'`);
@@ -99,8 +101,7 @@ function toStudyError(e: ErrorObject, path: PathSegment[], file: YamlFile): Stud
   }
 }
 
-function allowedKeys(e: ErrorObject): string | undefined {
+function allowedKeys(e: ErrorObject): string[] {
   const schema = e.parentSchema as { properties?: Record<string, unknown> } | undefined;
-  const keys = schema?.properties ? Object.keys(schema.properties) : [];
-  return keys.length ? keys.join(', ') : undefined;
+  return schema?.properties ? Object.keys(schema.properties) : [];
 }
