@@ -6,11 +6,13 @@
 import type { Study } from '../study/types.js';
 import type { CompiledLogic } from '../logic/index.js';
 import { baseCase } from './case.js';
+import { driversStage } from './drivers-stage.js';
 import { evaluateEvents, type EventEvaluation } from './event-probability.js';
 import { fitsStage } from './fits.js';
 import { buildLogicModel, type LogicModel } from './logic-model.js';
-import { compileCase, quantifyTops } from './quantify.js';
+import { boundTops, boundWarning, compileBaseCase, quantifyTops } from './quantify.js';
 import { describeStudy } from './results-parts.js';
+import { sharedCauseStage } from './shared-cause-stage.js';
 import type { EventResult, Results } from './results.js';
 
 export interface AnalyzeOptions {
@@ -32,14 +34,15 @@ export interface AnalysisContext {
 export type Stage = (ctx: AnalysisContext) => Partial<Results>;
 
 /** The stages, in the order they run; later issues add theirs here. */
-const STAGES: Stage[] = [fitsStage];
+const STAGES: Stage[] = [fitsStage, driversStage, sharedCauseStage];
 
 export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
   const model = buildLogicModel(study);
   const base = baseCase();
   const evaluation = evaluateEvents(study, base);
-  const compiled = compileCase(study, model, base.switches);
-  const tops = quantifyTops(study, model, compiled, evaluation.probability);
+  // Undefined when the diagram outgrew max_nodes and the study allows cut-set bounds instead.
+  const compiled = compileBaseCase(study, model, base.switches);
+  const tops = compiled ? quantifyTops(study, model, compiled, evaluation.probability) : boundTops(study, model, base.switches, evaluation.probability);
   const parts = describeStudy(study);
   const results: Results = {
     format: parts.format,
@@ -55,6 +58,11 @@ export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
     tops,
     warnings: parts.warnings,
   };
+  if (!compiled) {
+    // Every further stage re-evaluates the diagram; without one the results stop at the bounds.
+    results.warnings.push(boundWarning(study));
+    return results;
+  }
   const ctx: AnalysisContext = { study, model, compiled, base: evaluation, results, options };
   for (const stage of STAGES) Object.assign(results, stage(ctx));
   return results;

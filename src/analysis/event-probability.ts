@@ -5,6 +5,7 @@
 import { modelProbability } from '../reliability/models/index.js';
 import type { Study } from '../study/types.js';
 import { ageInCase, fieldValue, type Case } from './case.js';
+import { commonCauseOf } from './common-cause.js';
 
 /** Parameter value by key: the study's own, unless a sampler supplies another. */
 export type ParameterValues = (key: string) => number;
@@ -15,7 +16,14 @@ export function studyValues(study: Study): ParameterValues {
 }
 
 export interface EventEvaluation {
+  /**
+   * One entry per variable of the logic model, the vector the decision diagrams take: the study's
+   * events in study order, then the common-cause expansion's shared events (common-cause.ts). A
+   * common-cause member's entry is its independent part; without groups this equals `total`.
+   */
   probability: Float64Array;
+  /** Each study event's own model probability (a common-cause member's total Q_t), study order. */
+  total: Float64Array;
   /** Field values each event used, for the report. */
   used: Record<string, number>[];
   ages: (number | undefined)[];
@@ -43,5 +51,6 @@ export function evaluateEvents(study: Study, c: Case, values: ParameterValues = 
     used.push(fields);
     ages.push(age);
   });
-  return { probability, used, ages };
+  const expanded = commonCauseOf(study).apply(probability, (key) => c.overrides.get(key) ?? values(key));
+  return { probability: expanded, total: probability, used, ages };
 }

@@ -4,29 +4,113 @@
  * importance of every basic event, all for one set of event probabilities.
  */
 import { compile, cutSetBounds, importance, minimalCutSets, NodeBudgetExceeded, probability, type CompiledLogic } from '../logic/index.js';
+import { ExpansionBudgetExceeded, topDownCutSets } from '../logic/cut-sets-topdown.js';
 import { StudyError } from '../study/errors.js';
 import type { Study } from '../study/types.js';
 import type { LogicModel } from './logic-model.js';
 import type { CutSet, Importance, TopResult } from './results.js';
 
-/** House events (switches) enter the diagram as constants, so cut sets never carry them. */
-export function compileCase(study: Study, model: LogicModel, switches: ReadonlyMap<string, boolean>): CompiledLogic {
+/** House-event states of a case, by variable index: switches enter the logic as constants. */
+function switchStates(study: Study, switches: ReadonlyMap<string, boolean>): Map<number, boolean> {
   const fixed = new Map<number, boolean>();
   study.events.forEach((e, i) => {
     if (e.model === 'switch') fixed.set(i, switches.get(e.id) ?? e.on ?? false);
   });
+  return fixed;
+}
+
+function budgetError(study: Study): StudyError {
+  return new StudyError(
+    `the decision diagram outgrew settings.max_nodes (${study.settings.max_nodes.toLocaleString('en-US')} nodes)`,
+    undefined,
+    'a larger settings.max_nodes (memory permitting), a simpler model, or settings.on_node_budget: bounds to report cut-set bounds instead of the exact value',
+  );
+}
+
+function compileWithin(study: Study, model: LogicModel, switches: ReadonlyMap<string, boolean>): CompiledLogic | NodeBudgetExceeded {
   try {
-    return compile(model.graph, { fixed, maxNodes: study.settings.max_nodes });
+    return compile(model.graph, { fixed: switchStates(study, switches), maxNodes: study.settings.max_nodes });
   } catch (err) {
-    if (err instanceof NodeBudgetExceeded) {
-      throw new StudyError(
-        `the decision diagram outgrew settings.max_nodes (${study.settings.max_nodes.toLocaleString('en-US')} nodes)`,
-        undefined,
-        'a larger settings.max_nodes (memory permitting), a simpler model, or settings.on_node_budget: bounds to report cut-set bounds instead of the exact value',
-      );
-    }
+    if (err instanceof NodeBudgetExceeded) return err;
     throw err;
   }
+}
+
+/** House events (switches) enter the diagram as constants, so cut sets never carry them. */
+export function compileCase(study: Study, model: LogicModel, switches: ReadonlyMap<string, boolean>): CompiledLogic {
+  const compiled = compileWithin(study, model, switches);
+  if (compiled instanceof NodeBudgetExceeded) throw budgetError(study);
+  return compiled;
+}
+
+/**
+ * The base case's diagram; undefined when it outgrew settings.max_nodes and the study asked for
+ * cut-set bounds instead (settings.on_node_budget: bounds), in which case use `boundTops`.
+ */
+export function compileBaseCase(study: Study, model: LogicModel, switches: ReadonlyMap<string, boolean>): CompiledLogic | undefined {
+  const compiled = compileWithin(study, model, switches);
+  if (!(compiled instanceof NodeBudgetExceeded)) return compiled;
+  if (study.settings.on_node_budget === 'bounds') return undefined;
+  throw budgetError(study);
+}
+
+/** Warning code carried by results whose top probabilities are bounds, not exact values. */
+export const BOUND_WARNING = 'node-budget-bounds';
+
+/**
+ * Without a diagram: each top's minimal cut sets by top-down expansion with the cutoff, and in place
+ * of the exact value the min-cut upper bound over the kept sets and every dropped partial product,
+ * which is a true upper bound (see logic/cut-sets-topdown.ts); `basis` says so. rare_event and
+ * mcub keep their meaning of the exact case (over the listed cut sets only), so the reported bound is
+ * never below mcub, and equals it when the cutoff dropped nothing. Importance needs the diagram and
+ * is left out.
+ */
+export function boundTops(study: Study, model: LogicModel, switches: ReadonlyMap<string, boolean>, p: Float64Array): TopResult[] {
+  const ids = model.graph.variables;
+  const fixed = switchStates(study, switches);
+  return study.tops.map((top, t) => {
+    let td;
+    try {
+      td = topDownCutSets(model.graph, model.topGates[t]!, p, { cutoff: study.settings.cutoff, maxOrder: study.settings.max_order, fixed });
+    } catch (err) {
+      if (err instanceof ExpansionBudgetExceeded) {
+        throw new StudyError(
+          `top '${top.id}': the decision diagram outgrew settings.max_nodes and the cut-set expansion that replaces it stopped after ${err.steps.toLocaleString('en-US')} steps`,
+          top.at,
+          'a larger settings.cutoff or a smaller settings.max_order (fewer cut sets to expand), or a larger settings.max_nodes',
+        );
+      }
+      throw err;
+    }
+    const bound = td.upperBound;
+    const listed = cutSetBounds(td.sets);
+    return {
+      id: top.id,
+      title: top.title,
+      gate: top.gate,
+      probability: { exact: bound, rare_event: listed.rareEvent, mcub: listed.mcub, basis: 'bound' },
+      cut_sets: td.sets.map((s): CutSet => ({ events: s.vars.map((v) => ids[v]!), probability: s.probability, share: bound > 0 ? s.probability / bound : 0 })),
+      cut_set_summary: {
+        listed: td.sets.length,
+        truncated: td.droppedTerms,
+        cutoff: study.settings.cutoff,
+        max_order: study.settings.max_order,
+        coherent: td.coherent,
+      },
+      bdd_nodes: 0,
+    };
+  });
+}
+
+/** The results warning that says the numbers are bounds, and what was left out. */
+export function boundWarning(study: Study): { code: string; message: string } {
+  return {
+    code: BOUND_WARNING,
+    message:
+      `the decision diagram outgrew settings.max_nodes (${study.settings.max_nodes.toLocaleString('en-US')} nodes), so each top probability is an UPPER BOUND ` +
+      '(the min-cut upper bound over the cut sets kept and those dropped by the cutoff), not the exact value; ' +
+      'importance, sensitivity, uncertainty and the other analyses that need the diagram are left out',
+  };
 }
 
 export function quantifyTops(study: Study, model: LogicModel, compiled: CompiledLogic, p: Float64Array): TopResult[] {
@@ -44,7 +128,8 @@ export function quantifyTops(study: Study, model: LogicModel, compiled: Compiled
     const imp = importance(compiled.manager, root, p);
     const ranked: Importance[] = [];
     imp.birnbaum.forEach((b, v) => {
-      if (study.events[v]!.model === 'switch') return;
+      // Variables past the study's events are common-cause events (never switches).
+      if (study.events[v]?.model === 'switch') return;
       ranked.push({
         event: ids[v]!,
         fussell_vesely: imp.fussellVesely[v]!,

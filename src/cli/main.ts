@@ -7,6 +7,7 @@ import { StudyError, StudyErrors } from '../study/errors.js';
 import { toolVersion } from '../package.js';
 import { EXIT, type Command, type Io } from './io.js';
 import { commands } from './commands.js';
+import { OutputWriteError } from './outputs.js';
 
 const USAGE = `faultbook ${toolVersion} — failure-probability studies to a sourced, reproducible appendix
 
@@ -57,6 +58,16 @@ export function reportFailure(err: unknown, io: Io): number {
   if (err instanceof StudyError) {
     io.stderr(`error: ${err.describe()}\n`);
     return EXIT.badInput;
+  }
+  if (err instanceof OutputWriteError) {
+    // The machine, not the study and not us: a folder that cannot be written, a full disk.
+    io.stderr(`faultbook: ${err.message}\n`);
+    return EXIT.failure;
+  }
+  const sys = err as NodeJS.ErrnoException;
+  if (err instanceof Error && typeof sys.code === 'string' && typeof sys.syscall === 'string') {
+    io.stderr(`faultbook: could not ${sys.syscall}${sys.path ? ` ${sys.path}` : ''}: ${sys.code}\n`);
+    return EXIT.failure;
   }
   const message = err instanceof Error ? err.message : String(err);
   io.stderr(`faultbook: internal error: ${message}\n`);

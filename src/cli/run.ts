@@ -11,6 +11,7 @@ import { helpText, parseCommandArgs, type CommandSpec } from './args.js';
 import { EXIT, type Command } from './io.js';
 import { writeOutputs, type OutputFile } from './outputs.js';
 import { formatProbability, printWarnings } from './print.js';
+import { createProgress } from './progress.js';
 import { resultsJson } from '../report/results-json.js';
 
 const FORMATS = ['html', 'pdf', 'json', 'csv'] as const;
@@ -58,7 +59,17 @@ const run: Command = async (argv, io) => {
 
   const study = readStudy(studyDir);
   printWarnings(study.warnings, io);
-  const results = analyze(study);
+  // Progress on stderr for long Monte Carlo runs, only on a terminal and without --quiet.
+  const progress = createProgress({ isTTY: io.isTTY, quiet, write: (t) => io.stderr(t), now: () => performance.now() });
+  let results;
+  try {
+    results = analyze(study, { progress: progress.update });
+  } finally {
+    progress.finish();
+  }
+  // Warnings the analysis adds (e.g. top probabilities that are bounds, not exact) reach the terminal too.
+  const seen = new Set(study.warnings.map((w) => `${w.code}\u0000${w.message}`));
+  for (const w of results.warnings) if (!seen.has(`${w.code}\u0000${w.message}`)) io.stderr(`warning: ${w.message} [${w.code}]\n`);
 
   const files: OutputFile[] = [];
   if (formats.has('json')) files.push({ name: 'results.json', data: resultsJson(results) });
@@ -73,7 +84,8 @@ const run: Command = async (argv, io) => {
   const written = writeOutputs(outDir, files);
   if (!quiet) {
     for (const top of results.tops) {
-      io.stdout(`${top.id}: ${formatProbability(top.probability.exact)} (exact; rare-event ${formatProbability(top.probability.rare_event)}, MCUB ${formatProbability(top.probability.mcub)})\n`);
+      const basis = top.probability.basis === 'bound' ? 'upper bound, not exact' : 'exact';
+      io.stdout(`${top.id}: ${formatProbability(top.probability.exact)} (${basis}; rare-event ${formatProbability(top.probability.rare_event)}, MCUB ${formatProbability(top.probability.mcub)})\n`);
     }
     for (const w of written) io.stdout(`wrote ${w}\n`);
   }

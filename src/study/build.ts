@@ -6,6 +6,7 @@
 import { parseDate, yearsBetween } from '../reliability/units.js';
 import { StudyError, StudyErrors } from './errors.js';
 import { checkLogic } from './check-logic.js';
+import { readSharedCauseSections } from './event-trees.js';
 import { fitProvenance, fittedValue } from './fits.js';
 import { lint } from './lint.js';
 import { readParameter, readQuantity, checkDomain, quantityOfField } from './quantities.js';
@@ -107,9 +108,11 @@ export function buildStudy(input: BuildInput): Study {
   };
 
   // Classes: each numeric field becomes one shared parameter.
-  const classes = new Map<string, { model?: ModelKind; fields: Map<string, string>; assumptions: string[]; source?: string; title?: string; at: Pos }>();
+  const classes = new Map<string, { model?: ModelKind; fields: Map<string, string>; failed?: Set<string>; assumptions: string[]; source?: string; title?: string; at: Pos }>();
   for (const { id, raw, file } of entriesOf(sections, 'classes')) {
     const fields = new Map<string, string>();
+    // Fields whose value was refused (already reported): events of the class do not report them missing.
+    const failed = new Set<string>();
     for (const field of numericFields(raw)) {
       const p = attempt(() =>
         readParameter(raw[field], {
@@ -122,9 +125,12 @@ export function buildStudy(input: BuildInput): Study {
         annotateFit(p, fitSources);
         parameters.push(p);
         fields.set(field, p.key);
+      } else {
+        failed.add(field);
       }
     }
     classes.set(id, {
+      failed,
       ...(typeof raw.model === 'string' ? { model: raw.model as ModelKind } : {}),
       fields,
       assumptions: Array.isArray(raw.assumptions) ? raw.assumptions.map(String) : [],
@@ -158,6 +164,9 @@ export function buildStudy(input: BuildInput): Study {
     if (g) commonCause.push(g);
   }
 
+  // counts:, event_trees:, failure_modes: (after the logic and events they refer to).
+  const shared = attempt(() => readSharedCauseSections({ sections, gates, tops, events, parameters, sourceIds: new Set(sources.map((x) => x.id)), fitted: fittedLookup }));
+
   const scenarios: Scenario[] = [];
   for (const { id, raw, file } of entriesOf(sections, 'scenarios')) {
     const s = attempt(() => readScenario(id, raw, file, events, classes, asOf));
@@ -183,6 +192,9 @@ export function buildStudy(input: BuildInput): Study {
     scenarios,
     fits,
     commonCause,
+    ...(shared?.counts.length ? { counts: shared.counts } : {}),
+    ...(shared?.eventTrees.length ? { eventTrees: shared.eventTrees } : {}),
+    ...(shared?.failureModes.length ? { failureModes: shared.failureModes } : {}),
     files: input.files,
     warnings: [],
   };
@@ -245,7 +257,7 @@ function readEvent(
   id: string,
   raw: Record<string, unknown>,
   file: YamlFile,
-  classes: Map<string, { model?: ModelKind; fields: Map<string, string>; assumptions: string[]; source?: string; title?: string; at: Pos }>,
+  classes: Map<string, { model?: ModelKind; fields: Map<string, string>; failed?: Set<string>; assumptions: string[]; source?: string; title?: string; at: Pos }>,
   parameters: Parameter[],
   fitted: (fitId: string, field: string, at: Pos) => { value: number; written: string },
   fitSources: Map<string, FitSpec>,
@@ -283,6 +295,7 @@ function readEvent(
   }
   for (const field of spec.required) {
     if (!fields[field]) {
+      if (cls?.failed?.has(field)) continue;
       throw new StudyError(`event '${id}' (${model} model) has no '${field}'`, at, `'${field}: …' on the event or its class (${model} needs ${spec.required.join(', ')})`);
     }
   }
@@ -330,7 +343,7 @@ function readGate(id: string, raw: Record<string, unknown>, file: YamlFile): Gat
   const title = typeof raw.title === 'string' ? { title: raw.title } : {};
   if (op === 'not') {
     if (raw.of !== undefined) throw new StudyError(`gate '${id}': 'of' goes with 'atleast'`, file.keyAt(['gates', id, 'of']), expected);
-    return { id, op, inputs: [String(raw.not)], at, ...title };
+    return { id, op, inputs: [String(raw.not)], inputsAt: [file.at(['gates', id, 'not'])], at, ...title };
   }
   if (op === 'atleast') {
     if (!Array.isArray(raw.of)) throw new StudyError(`voting gate '${id}' has no 'of: [...]' list`, at, `'atleast: ${String(raw.atleast)}, of: [a, b, c]'`);
@@ -340,12 +353,12 @@ function readGate(id: string, raw: Record<string, unknown>, file: YamlFile): Gat
     if (inputs.length === 0) throw new StudyError(`gate '${id}' has no inputs`, file.at(['gates', id, 'of']), 'at least one input id');
     if (k > inputs.length) throw new StudyError(`voting gate '${id}' needs ${k} of only ${inputs.length} inputs`, kAt, `k between 1 and ${inputs.length}`);
     if (k < 1) throw new StudyError(`voting gate '${id}' has k = ${k}`, kAt, `k between 1 and ${inputs.length}`);
-    return { id, op, k, inputs, at, ...title };
+    return { id, op, k, inputs, inputsAt: inputs.map((_, i) => file.at(['gates', id, 'of', i])), at, ...title };
   }
   if (raw.of !== undefined) throw new StudyError(`gate '${id}': 'of' goes with 'atleast'`, file.keyAt(['gates', id, 'of']), expected);
   const inputs = (raw[op] as unknown[]).map(String);
   if (inputs.length === 0) throw new StudyError(`gate '${id}' has no inputs`, file.at(['gates', id, op]), 'at least one input id');
-  return { id, op, inputs, at, ...title };
+  return { id, op, inputs, inputsAt: inputs.map((_, i) => file.at(['gates', id, op, i])), at, ...title };
 }
 
 const CCF_FIELDS: Record<CommonCauseGroup['method'], (m: number) => string[]> = {
@@ -385,6 +398,8 @@ function readCommonCause(
     const sum = wanted.reduce((s, f) => s + parameters.find((p) => p.key === fields[f])!.value, 0);
     if (Math.abs(sum - 1) > 1e-6) throw new StudyError(`common-cause group '${id}': the alpha factors add up to ${sum}`, at, 'alpha1 + … + alphaM = 1');
   }
+  // The testing scheme changes only the alpha-factor formulas; elsewhere it would be silently ignored.
+  if (raw.testing !== undefined && method !== 'alpha') throw new StudyError(`common-cause group '${id}': 'testing' matters only to the alpha-factor method`, file.keyAt(['common_cause', id, 'testing']), `remove 'testing', or use 'method: alpha'`);
   const g: CommonCauseGroup = { id, members, method, testing: raw.testing === 'staggered' ? 'staggered' : 'non-staggered', fields, at };
   if (typeof raw.title === 'string') g.title = raw.title;
   return g;
@@ -456,9 +471,15 @@ function checkReferences(
     for (const a of e.assumptions) if (!assumptionIds.has(a)) errors.push(new StudyError(`event '${e.id}' rests on unknown assumption '${a}'`, e.at, ahint));
   }
   const eventIds = new Set(s.events.map((e) => e.id));
+  const groupOf = new Map<string, string>();
   for (const g of s.commonCause) {
     for (const m of g.members) {
       if (!eventIds.has(m)) errors.push(new StudyError(`common-cause group '${g.id}' names unknown event '${m}'`, g.at, 'basic-event ids from events.yaml'));
+      else if (s.events.find((e) => e.id === m)!.model === 'switch') errors.push(new StudyError(`common-cause group '${g.id}' names switch (house) event '${m}'`, g.at, 'basic events that can fail; a switch is a condition, not a failure'));
+      // One failure mode of a component belongs to one group (NUREG/CR-5485): two groups would count its shared causes twice.
+      const other = groupOf.get(m);
+      if (other !== undefined) errors.push(new StudyError(`event '${m}' is in common-cause groups '${other}' and '${g.id}'`, g.at, 'each event in one group at most'));
+      groupOf.set(m, g.id);
     }
   }
 }

@@ -38,13 +38,14 @@ export function checkLogic(parts: LogicParts): void {
   const known = [...gateIds.keys(), ...eventIds];
   for (const g of parts.gates) {
     const seen = new Set<string>();
-    for (const input of g.inputs) {
-      if (seen.has(input)) errors.push(new StudyError(`gate '${g.id}' lists '${input}' twice`, g.at, 'each input once'));
+    g.inputs.forEach((input, i) => {
+      const at = g.inputsAt?.[i] ?? g.at;
+      if (seen.has(input)) errors.push(new StudyError(`gate '${g.id}' lists '${input}' twice`, at, 'each input once'));
       seen.add(input);
       if (!gateIds.has(input) && !eventIds.has(input)) {
-        errors.push(new StudyError(`gate '${g.id}' has unknown input '${input}'`, g.at, suggest(input, known, 'the id of a gate or a basic event')));
+        errors.push(new StudyError(`gate '${g.id}' has unknown input '${input}'`, at, suggest(input, known, 'the id of a gate or a basic event')));
       }
-    }
+    });
   }
   if (errors.length === 0) {
     const cycle = findCycle(parts.gates, gateIds);

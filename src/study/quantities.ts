@@ -70,7 +70,7 @@ export interface ParameterContext {
   file: YamlFile;
   path: PathSegment[];
   owner: string;
-  ownerKind: 'class' | 'event' | 'group';
+  ownerKind: Parameter['ownerKind'];
   field: string;
   /** The owner's default source, used when the parameter names none. */
   defaultSource?: string;

@@ -87,7 +87,8 @@ export function confine(root: string, rel: string, at?: Pos): string {
   const full = resolve(root, rel);
   const inside = (p: string, base: string) => {
     const r = relative(base, p);
-    return r !== '' && !r.startsWith('..') && !isAbsolute(r) && !r.split(sep).includes('..');
+    // Outside means a '..' segment, not a name that merely starts with two dots ('..notes.csv').
+    return r !== '' && !isAbsolute(r) && !r.split(sep).includes('..');
   };
   if (!inside(full, root)) throw new StudyError(`'${rel}' points outside the study folder`, where, "a path inside the study folder, e.g. 'data/motor-life.csv'");
   if (!existsSync(full)) throw new StudyError(`file not found: ${rel}`, where, 'a file that exists inside the study folder');

@@ -94,6 +94,12 @@ function toStudyError(e: ErrorObject, path: PathSegment[], file: YamlFile): Stud
       return new StudyError(`${where} has the wrong type`, file.at(path), `a value of type ${String(params.type).replace(',', ' or ')}`);
     case 'pattern':
       return new StudyError(`${where} is not in the expected form`, file.at(path), (e.parentSchema as { description?: string } | undefined)?.description ?? `text matching ${String(params.pattern)}`);
+    case 'minimum':
+    case 'maximum':
+    case 'exclusiveMinimum':
+    case 'exclusiveMaximum':
+      // ajv's own text ("must be >= 1000") reads as code; say the value and the range instead.
+      return new StudyError(`${where} is ${typeof e.data === 'number' ? String(e.data) : JSON.stringify(e.data)}, out of range`, file.at(path), `a number ${String(params.comparison)} ${String(params.limit)}`);
     case 'oneOf':
       return new StudyError(`${where} is not a valid parameter`, file.at(path), (e.parentSchema as { description?: string } | undefined)?.description ?? 'see the study format in the README');
     default:

@@ -34,7 +34,8 @@ export interface Parameter {
   /** `<owner>.<field>`, e.g. `hoist-motor.shape` or `hoist-1-motor.exercise`. Unique in a study. */
   key: string;
   owner: string;
-  ownerKind: 'class' | 'event' | 'group';
+  /** `tree`: a number of an event tree (`event_trees:`); `modes`: of a failure-mode combination (`failure_modes:`). */
+  ownerKind: 'class' | 'event' | 'group' | 'tree' | 'modes';
   field: string;
   quantity: Quantity;
   /** In canonical units. */
@@ -88,6 +89,8 @@ export interface Gate {
   op: 'any' | 'all' | 'atleast' | 'not';
   k?: number;
   inputs: string[];
+  /** Where each input is written, in the order of `inputs` (for messages about one input). */
+  inputsAt?: Pos[];
   at: Pos;
 }
 
@@ -196,6 +199,10 @@ export interface Study {
   scenarios: Scenario[];
   fits: FitSpec[];
   commonCause: CommonCauseGroup[];
+  /** logic.yaml `counts:` (how many of a set of gates fail), `event_trees:` and `failure_modes:`; absent when not given. */
+  counts?: CountSet[];
+  eventTrees?: EventTree[];
+  failureModes?: FailureModeSet[];
   files: InputFile[];
   warnings: Warning[];
 }
@@ -233,5 +240,89 @@ export interface CommonCauseGroup {
   testing: 'staggered' | 'non-staggered';
   /** Method parameter name (`beta`; `beta`,`gamma`,`delta`…; `alpha1`…`alphaM`) → parameter key. */
   fields: Record<string, string>;
+  at: Pos;
+}
+
+/**
+ * A set whose number failing is wanted (logic.yaml `counts:`): n gates, tops or basic events; the
+ * analysis gives P(exactly j of them fail), j = 0..n, on one decision diagram.
+ */
+export interface CountSet {
+  id: string;
+  title: string;
+  /** Gate, top or basic-event ids, as written. */
+  of: string[];
+  at: Pos;
+}
+
+/** One range of an event tree's initiating load. */
+export interface LoadRange {
+  id: string;
+  title: string;
+  /**
+   * `aep`: the annual exceedance probabilities bounding the range, more frequent first (parameter
+   * keys), so the range's annual probability is upper − lower. `frequency`: an initiating
+   * frequency per year (parameter key).
+   */
+  basis: 'aep' | 'frequency';
+  aep?: [string, string];
+  frequency?: string;
+  at: Pos;
+}
+
+/**
+ * When a heading's failure branch is taken: a fixed probability, one per load range, the output
+ * of a gate (or top), or "at least k of these fail" with k per load range (0 = always, n + 1 = never).
+ * Gate and count conditions are logic, quantified on the diagram with every other condition of the
+ * sequence; probability conditions are independent of every basic event.
+ */
+export type BranchCondition =
+  | { kind: 'probability'; key: string }
+  | { kind: 'by-range'; keys: string[] }
+  | { kind: 'gate'; gate: string; top?: string }
+  | { kind: 'atleast'; k: number[]; of: string[]; count?: string };
+
+export interface Heading {
+  id: string;
+  title: string;
+  fails: BranchCondition;
+  at: Pos;
+}
+
+export type BranchState = 'works' | 'fails';
+
+export interface TreeSequence {
+  /** `S1`, `S2`, … in tree order (works above fails, as drawn). */
+  id: string;
+  /** One entry per heading: the branch taken, or null where the heading is not asked. */
+  path: (BranchState | null)[];
+  outcome: string;
+  at: Pos;
+}
+
+/** logic.yaml `event_trees:`: an initiating load in ranges, headings, sequences and outcomes. */
+export interface EventTree {
+  id: string;
+  title: string;
+  load: { title: string; source?: string; note?: string; ranges: LoadRange[] };
+  headings: Heading[];
+  outcomes: { id: string; title: string; at: Pos }[];
+  sequences: TreeSequence[];
+  at: Pos;
+}
+
+/** Where a failure mode's probability given each load range comes from. */
+export type ModeBasis =
+  | { kind: 'outcome'; outcome: string }
+  | { kind: 'by-range'; keys: string[] }
+  | { kind: 'probability'; key: string };
+
+/** logic.yaml `failure_modes:`: failure modes of one dam that share the load of one event tree. */
+export interface FailureModeSet {
+  id: string;
+  title: string;
+  /** The event tree whose load ranges the modes share. */
+  tree: string;
+  modes: { id: string; title: string; basis: ModeBasis; at: Pos }[];
   at: Pos;
 }

@@ -2,7 +2,7 @@
  * YAML with positions. A study file is parsed once into a document that keeps every node's place,
  * so any later check can point at file, line and column by the path of the value it rejects.
  */
-import { isMap, isScalar, isSeq, LineCounter, parseDocument, type Document, type Node } from 'yaml';
+import { isMap, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type ErrorCode, type Node } from 'yaml';
 import { StudyError } from './errors.js';
 import type { Pos } from './types.js';
 
@@ -33,10 +33,8 @@ export function parseYamlFile(file: string, text: string): YamlFile {
   };
   const problem = doc.errors[0];
   if (problem) {
-    const at = posOf(problem.pos[0]);
-    const message = firstLine(problem.message);
-    const hint = problem.code === 'DUPLICATE_KEY' ? 'each key once in a mapping' : 'valid YAML (check indentation, colons and quotes)';
-    throw new StudyError(`YAML: ${message}`, at, hint);
+    const { message, hint, offset } = explainYamlError(problem.code, problem.message, text, problem.pos[0]);
+    throw new StudyError(`YAML: ${message}`, posOf(offset), hint);
   }
   checkDepth(doc, posOf);
   let data: unknown;
@@ -44,7 +42,15 @@ export function parseYamlFile(file: string, text: string): YamlFile {
     data = doc.toJS({ maxAliasCount: MAX_ALIASES });
   } catch (err) {
     const message = err instanceof Error ? err.message : String(err);
-    throw new StudyError(`YAML: ${firstLine(message)}`, { file, line: 1, col: 1 }, `at most ${MAX_ALIASES} alias expansions; write the values out`);
+    // Point at the first alias: that is where the expansion starts, not line 1.
+    let at: Pos = { file, line: 1, col: 1 };
+    visit(doc, {
+      Alias(_key, node) {
+        if (node.range) at = posOf(node.range[0]);
+        return visit.BREAK;
+      },
+    });
+    throw new StudyError(`YAML: ${firstLine(message)}`, at, `at most ${MAX_ALIASES} alias expansions; write the values out`);
   }
   if (data === null || data === undefined) data = {};
   const find = (path: readonly PathSegment[], wantKey: boolean): Pos => {
@@ -92,5 +98,38 @@ function checkDepth(doc: Document, posOf: (offset: number) => Pos): void {
 }
 
 function firstLine(text: string): string {
-  return text.split('\n')[0]!.trim();
+  // The parser appends " at line L, column C:" and a source excerpt; the position is reported separately.
+  return text.split('\n')[0]!.trim().replace(/\s+at line \d+, column \d+:?$/, '');
+}
+
+/**
+ * The parser's message in the user's terms, with what would be right, and the offset to point at
+ * (the parser reports an unclosed quote where the file ends; the user wants where it opens).
+ */
+function explainYamlError(code: ErrorCode, raw: string, text: string, offset: number): { message: string; hint: string; offset: number } {
+  switch (code) {
+    case 'DUPLICATE_KEY': {
+      const key = /^\s*("[^"\n]*"|'[^'\n]*'|[^:,{}\[\]\n]*)/.exec(text.slice(offset))?.[1]?.trim().replace(/^["']|["']$/g, '');
+      return key
+        ? { message: `the key '${key}' appears twice in one mapping`, hint: 'each key once in a mapping (merge the two entries or rename one)', offset }
+        : { message: firstLine(raw), hint: 'each key once in a mapping', offset };
+    }
+    case 'MULTIPLE_DOCS':
+      return { message: "the file holds more than one YAML document (a '---' line starts a second one)", hint: "one document per file: remove the '---' separator", offset };
+    case 'RESOURCE_EXHAUSTION':
+      // The parser ran out of stack: only absurd nesting does that.
+      return { message: 'the file nests too deeply to read', hint: 'a study nests a few levels: sections, ids, fields', offset };
+    case 'MISSING_CHAR': {
+      const quote = /closing "quote/.test(raw) ? '"' : /closing 'quote/.test(raw) ? "'" : undefined;
+      if (quote) {
+        // Inside an unclosed quoted value no further quote occurs, so the last one before the end opened it.
+        let open = text.lastIndexOf(quote, offset - 1);
+        while (quote === '"' && open > 0 && text[open - 1] === '\\') open = text.lastIndexOf(quote, open - 2);
+        return { message: `a value opened with ${quote} is never closed`, hint: `a closing ${quote} at the end of the value`, offset: open >= 0 ? open : offset };
+      }
+      return { message: firstLine(raw), hint: 'valid YAML (check indentation, colons and quotes)', offset };
+    }
+    default:
+      return { message: firstLine(raw), hint: 'valid YAML (check indentation, colons and quotes)', offset };
+  }
 }

@@ -81,5 +81,6 @@ export function demandProbability(inputs: DemandInputs): number {
   if (rate === undefined && interval === undefined) return probability;
   if (rate === undefined || interval === undefined || !(rate >= 0) || !(interval > 0)) return NaN;
   const standby = hiddenFailureFraction(rate * interval);
-  return 1 - (1 - probability) * (1 - standby);
+  // 1 − (1 − q_d)(1 − Ū) written without subtracting from 1, so tiny probabilities keep their digits.
+  return probability + standby * (1 - probability);
 }

@@ -147,5 +147,6 @@ export function weibullEventProbability(inputs: WeibullEventInputs): number {
   // Found-failure rate per unit time, qEnd/τ; its limit as τ → 0 is the hazard at the current age.
   const foundPerTime = exercise > 0 ? qEnd / exercise : weibullHazard(age, shape, scale, location);
   const qRep = Math.min(1, foundPerTime * repair);
-  return 1 - (1 - q) * (1 - qRep);
+  // 1 − (1 − q)(1 − q_rep) written without subtracting from 1, so tiny probabilities keep their digits.
+  return q + qRep * (1 - q);
 }

@@ -1,0 +1,54 @@
+/**
+ * Combining the failure modes of one dam that share a load (overtopping after gate failure,
+ * internal erosion, a spillway structure, … all driven by the same flood), following the practice
+ * discussed by R. Hill, D. Bowles, P. Jordan and R. Nathan, "Estimating overall risk of dam failure:
+ * practical considerations in combining failure probabilities", ANCOLD Bulletin, 2003. Which parts
+ * are used, and how they are stated here (the paper is cited from memory; each formula below is
+ * stated precisely and derived, not copied):
+ *
+ * (All references in this comment are from memory.)
+ *  1. The combination is made within each load range, where the modes' probabilities are
+ *     conditional on the same load, and only then weighted by the range's annual probability.
+ *     Combining annual totals would treat modes as independent across floods, which they are not.
+ *  2. The plain sum Σ P_i (Boole's upper bound on the union; exact only for mutually exclusive modes).
+ *  3. The uni-modal bounds  max_i P_i ≤ P(any mode) ≤ 1 − Π_i (1 − P_i)  (C. A. Cornell 1967; A. H.-S. Ang &
+ *     W. H. Tang). The lower bound always holds; the upper bound holds when the modes are independent
+ *     or positively dependent given the load (associated, e.g. increasing functions of shared
+ *     independent causes — Esary, Proschan & Walkup 1967), which is the usual case for modes of one
+ *     dam under one flood. It is exact for independent modes.
+ *  4. The common-cause adjustment: the modes are taken as independent given the load, and each
+ *     combination of modes that would occur together is shared equally among them, so that
+ *       P_i* = P_i · Σ_{c=0}^{n−1} P(exactly c of the other modes occur) / (c + 1),
+ *     which for two modes is P_A(1 − P_B/2) and for three P_A(1 − (P_B + P_C)/2 + P_B·P_C/3). The
+ *     adjusted P_i* add up to 1 − Π(1 − P_i), the upper uni-modal bound, so the total is not
+ *     double counted while each mode keeps its share for ranking and for consequence estimates.
+ * Not implemented: any weighting of modes by which would occur first, and the paper's discussion
+ * of dependence between modes beyond the shared load.
+ */
+import { poissonBinomial } from './gate-counts.js';
+
+/** Sum, uni-modal lower and upper bound of the probability that at least one mode occurs. */
+export function uniModalBounds(p: readonly number[]): { sum: number; lower: number; upper: number } {
+  let sum = 0;
+  let lower = 0;
+  let logSurvive = 0;
+  for (const x of p) {
+    sum += x;
+    lower = Math.max(lower, x);
+    logSurvive += Math.log1p(-x);
+  }
+  // 1 − Π(1 − P_i) through log1p/expm1: accurate when every P_i is tiny.
+  return { sum, lower, upper: p.length === 0 ? 0 : -Math.expm1(logSurvive) };
+}
+
+/** The common-cause adjustment (item 4 above): each mode's share of the union under independence. */
+export function commonCauseAdjustment(p: readonly number[]): number[] {
+  return p.map((pi, i) => {
+    const others = poissonBinomial(p.filter((_, j) => j !== i));
+    let share = 0;
+    others.forEach((pc, c) => {
+      share += pc / (c + 1);
+    });
+    return pi * share;
+  });
+}

@@ -1,0 +1,136 @@
+/**
+ * `evaluateEvents` prepared for one case and many parameter vectors (Monte Carlo trials): every
+ * lookup that does not change between trials — which parameter feeds which field through the
+ * case's overrides (`fieldValue`), each event's age (`ageInCase`), switch states — is resolved once,
+ * and each trial only copies the varying parameters into the model's fields and calls the same
+ * `modelProbability`. Two further savings, neither of which changes a number:
+ *  - events that read no varying parameter are computed once;
+ *  - events with the same model, the same parameter sources, the same age and state (the gates'
+ *    identical components of one class) are computed once per trial and the value shared.
+ * The test suite holds it equal to `evaluateEvents` value for value.
+ */
+import { modelProbability, type ModelContext } from '../reliability/models/index.js';
+import type { ModelKind, Study } from '../study/types.js';
+import { ageInCase, fieldValue, type Case } from './case.js';
+
+interface Group {
+  model: ModelKind;
+  /** Model field → value, rewritten in place each trial (one object per group, no allocation). */
+  fields: Record<string, number>;
+  /** Fields fed by a varying parameter: name and parameter index. */
+  varyingFields: string[];
+  varyingSources: Int32Array;
+  context: ModelContext;
+  /** Events (indices) that share this group's probability. */
+  events: Int32Array;
+  /** The first event's id, for messages. */
+  id: string;
+}
+
+export class EventPlan {
+  /** Probabilities of the events that read no varying parameter, and the starting point of `out`. */
+  private readonly fixedProbability: Float64Array;
+  private readonly groups: Group[] = [];
+
+  /**
+   * @param varying parameter indices (into study.parameters) whose values change between trials;
+   *                every other parameter keeps the study's value (or the case's override).
+   */
+  constructor(study: Study, c: Case, varying: ReadonlySet<number>) {
+    const index = new Map(study.parameters.map((p, i) => [p.key, i]));
+    const value = (key: string): number => study.parameters[index.get(key)!]!.value;
+    const n = study.events.length;
+    this.fixedProbability = new Float64Array(n);
+    const bySignature = new Map<string, { group: Group; events: number[] }>();
+    study.events.forEach((e, i) => {
+      const fields: Record<string, number> = {};
+      const varyingFields: string[] = [];
+      const varyingSources: number[] = [];
+      let signature = `${e.model}`;
+      for (const field of Object.keys(e.fields)) {
+        let readKey: string | undefined;
+        const v = fieldValue(e, field, c, (key) => {
+          readKey = key;
+          return value(key);
+        })!;
+        const source = readKey === undefined ? undefined : index.get(readKey);
+        if (source !== undefined && varying.has(source)) {
+          varyingFields.push(field);
+          varyingSources.push(source);
+          signature += `|${field}=p${source}`;
+        } else {
+          signature += `|${field}=${v}`;
+        }
+        fields[field] = v;
+      }
+      const age = ageInCase(study, e, c);
+      const on = c.switches.get(e.id) ?? e.on;
+      const context: ModelContext = { exerciseBasis: study.settings.exercise_basis };
+      if (age !== undefined) context.ageYears = age;
+      if (on !== undefined) context.on = on;
+      if (varyingFields.length === 0) {
+        this.fixedProbability[i] = checked(e.id, e.model, modelProbability(e.model, fields, context), fields);
+        return;
+      }
+      signature += `|age=${age}|on=${on}`;
+      const found = bySignature.get(signature);
+      if (found) {
+        found.events.push(i);
+        return;
+      }
+      bySignature.set(signature, {
+        group: {
+          model: e.model,
+          fields,
+          varyingFields,
+          varyingSources: Int32Array.from(varyingSources),
+          context,
+          events: new Int32Array(0),
+          id: e.id,
+        },
+        events: [i],
+      });
+    });
+    for (const { group, events } of bySignature.values()) {
+      group.events = Int32Array.from(events);
+      this.groups.push(group);
+    }
+  }
+
+  /** Events that are recomputed per trial (after sharing), for the benchmark's figures. */
+  get groupCount(): number {
+    return this.groups.length;
+  }
+
+  /**
+   * Event probabilities (study order) for one vector of parameter values (indexed like
+   * study.parameters; only the varying entries are read), written into `out`.
+   */
+  evaluate(values: ArrayLike<number>, out: Float64Array): Float64Array {
+    out.set(this.fixedProbability);
+    for (const g of this.groups) {
+      const f = g.fields;
+      const names = g.varyingFields;
+      const sources = g.varyingSources;
+      for (let k = 0; k < names.length; k++) f[names[k]!] = values[sources[k]!]!;
+      const q = checked(g.id, g.model, modelProbability(g.model, f, g.context), f);
+      const ev = g.events;
+      for (let k = 0; k < ev.length; k++) out[ev[k]!] = q;
+    }
+    return out;
+  }
+}
+
+function checked(id: string, model: string, q: number, fields: Record<string, number>): number {
+  if (!(q >= 0 && q <= 1)) throw new Error(`event '${id}' (${model}) gave probability ${q} from ${JSON.stringify(fields)}`);
+  return q;
+}
+
+/** Keys of the parameters some basic event reads through its fields (the others cannot move a probability). */
+export function parametersRead(study: Study): Set<string> {
+  const read = new Set<string>();
+  for (const e of study.events) for (const key of Object.values(e.fields)) read.add(key);
+  // Common-cause parameters (beta, …) move the expansion's probabilities (common-cause.ts).
+  for (const g of study.commonCause) for (const key of Object.values(g.fields)) read.add(key);
+  return read;
+}

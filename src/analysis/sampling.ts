@@ -1,0 +1,171 @@
+/**
+ * Drawing the study's parameters for a Monte Carlo trial.
+ *
+ * One sample per parameter per trial. A class parameter is one parameter shared by all the events
+ * of its class, so those events move together: the state-of-knowledge correlation of a PRA
+ * (G. Apostolakis & S. Kaplan, "Pitfalls in risk calculations", Reliab. Eng. 2, 1981; NUREG/CR-6823
+ * §6.3 on correlated parameters), which independent per-event sampling would understate.
+ *
+ * Every distribution is sampled by its inverse CDF from a unit uniform (`sampleQuantile`), so plain
+ * sampling and Latin hypercube sampling share one path: each parameter is one "dimension" of unit
+ * uniforms. A Weibull fit (`uncertainty: fit`) is two dimensions for the whole fit: two standard
+ * normals z₁, z₂ turned into (ln β, ln η) with the Cholesky factor of the fit's covariance of the
+ * logarithms, centred on the fitted values — the large-sample normal law of the maximum-likelihood
+ * estimates in the log parameters (W. Q. Meeker & L. A. Escobar, Statistical Methods for
+ * Reliability Data, 1998, ch. 8). The covariance is of logarithms, so the unit of the scale does not
+ * matter. A fitted location has no covariance entry and is held at its value.
+ *
+ * Values outside a parameter's domain: a sampled probability above 1 is set to 1 and counted
+ * (a lognormal's upper tail can cross 1); a negative value is a study error (the distribution
+ * should be truncated or be a positive one).
+ */
+import { createRng, latinHypercube, type Rng } from '../reliability/random.js';
+import { sampleQuantile } from '../reliability/distributions.js';
+import { normalQuantile } from '../reliability/special.js';
+import { StudyError } from '../study/errors.js';
+import type { Parameter, Study, Uncertainty } from '../study/types.js';
+
+type Draw =
+  | { kind: 'quantile'; param: number; dim: number; u: Exclude<Uncertainty, { kind: 'fit' }> }
+  | { kind: 'log-normal-pair'; param: number; dims: [number, number]; weights: [number, number]; logCentre: number };
+
+export interface SamplerPlan {
+  /** Parameter indices (into study.parameters) that vary between trials. */
+  varying: Set<number>;
+  /** Unit-uniform dimensions per trial. */
+  dimensions: number;
+  /** Keys of parameters that state an uncertainty the analysis cannot sample, with the reason. */
+  held: { key: string; reason: string }[];
+}
+
+export class ParameterSampler implements SamplerPlan {
+  readonly varying = new Set<number>();
+  readonly dimensions: number;
+  readonly held: { key: string; reason: string }[] = [];
+  /** Trials in which at least one sampled probability was above 1 and set to 1. */
+  clippedTrials = 0;
+  private readonly draws: Draw[] = [];
+  private readonly params: Parameter[];
+
+  /**
+   * @param readBy parameter keys some basic event reads; uncertainty on any other parameter cannot
+   *               change a probability and is listed in `held`.
+   */
+  constructor(study: Study, readBy: ReadonlySet<string>) {
+    this.params = study.parameters;
+    let dims = 0;
+    const fitPairs = new Map<string, { dims: [number, number]; chol: [number, number, number] } | null>();
+    study.parameters.forEach((p, i) => {
+      const u = p.uncertainty;
+      if (!u) return;
+      if (!readBy.has(p.key)) {
+        this.held.push({ key: p.key, reason: 'no basic event reads it' });
+        return;
+      }
+      if (u.kind !== 'fit') {
+        this.draws.push({ kind: 'quantile', param: i, dim: dims++, u });
+        this.varying.add(i);
+        return;
+      }
+      if (u.which === 'location') {
+        this.held.push({ key: p.key, reason: `the covariance of fit '${u.fit}' covers shape and scale only` });
+        return;
+      }
+      let pair = fitPairs.get(u.fit);
+      if (pair === undefined) {
+        const fit = study.fits.find((f) => f.id === u.fit);
+        const chol = fit?.result?.covarianceLog ? cholesky2(fit.result.covarianceLog) : undefined;
+        pair = chol ? { dims: [dims, dims + 1], chol } : null;
+        if (pair) dims += 2;
+        fitPairs.set(u.fit, pair);
+      }
+      if (pair === null) {
+        this.held.push({ key: p.key, reason: `fit '${u.fit}' gives no usable covariance` });
+        return;
+      }
+      if (!(p.value > 0)) throw new StudyError(`'${p.key}' is ${p.value}; a fitted ${u.which} must be positive to be sampled on the log scale`, p.at);
+      const [l00, l10, l11] = pair.chol;
+      // ln β = ln β̂ + L₀₀z₁;  ln η = ln η̂ + L₁₀z₁ + L₁₁z₂.
+      const weights: [number, number] = u.which === 'shape' ? [l00, 0] : [l10, l11];
+      this.draws.push({ kind: 'log-normal-pair', param: i, dims: pair.dims, weights, logCentre: Math.log(p.value) });
+      this.varying.add(i);
+    });
+    this.dimensions = dims;
+  }
+
+  /**
+   * Writes one trial's parameter values into `values` (indexed like study.parameters) from one
+   * row of unit uniforms (length `dimensions`). `trial` is only used in messages.
+   */
+  apply(uniforms: ArrayLike<number>, values: Float64Array, trial: number): void {
+    let clipped = false;
+    for (const d of this.draws) {
+      let v: number;
+      if (d.kind === 'quantile') {
+        v = sampleQuantile(d.u, uniforms[d.dim]!);
+      } else {
+        const z1 = normalQuantile(uniforms[d.dims[0]]!);
+        const z2 = normalQuantile(uniforms[d.dims[1]]!);
+        v = Math.exp(d.logCentre + d.weights[0] * z1 + d.weights[1] * z2);
+      }
+      const p = this.params[d.param]!;
+      if (!(v >= 0)) {
+        throw new StudyError(
+          `the uncertainty of '${p.key}' gave ${v} in Monte Carlo trial ${trial + 1}, outside the values it can take`,
+          p.at,
+          'a distribution that stays positive (lognormal, gamma, beta) or a normal with min: 0',
+        );
+      }
+      if (p.quantity === 'probability' && v > 1) {
+        v = 1;
+        clipped = true;
+      }
+      values[d.param] = v;
+    }
+    if (clipped) this.clippedTrials += 1;
+  }
+}
+
+/** Lower Cholesky factor [L₀₀, L₁₀, L₁₁] of a 2 × 2 covariance; undefined if it is not one. */
+export function cholesky2(c: readonly (readonly number[])[]): [number, number, number] | undefined {
+  const a = c[0]?.[0];
+  const b = c[0]?.[1];
+  const b2 = c[1]?.[0];
+  const d = c[1]?.[1];
+  if (a === undefined || b === undefined || b2 === undefined || d === undefined) return undefined;
+  if (!(a > 0) || !(d >= 0) || !Number.isFinite(b) || Math.abs(b - b2) > 1e-12 * Math.max(Math.abs(b), 1e-300)) return undefined;
+  const l00 = Math.sqrt(a);
+  const l10 = b / l00;
+  const rest = d - l10 * l10;
+  // A correlation of ±1 (to rounding) leaves no independent part; more than that is not a covariance.
+  if (rest < -1e-12 * d) return undefined;
+  return [l00, l10, Math.sqrt(Math.max(0, rest))];
+}
+
+/**
+ * Rows of unit uniforms, one per trial: plain sampling draws each row from the generator in order;
+ * Latin hypercube sampling (McKay, Beckman & Conover 1979) draws each dimension's column of n
+ * stratified values up front (`latinHypercube`), dimension by dimension, from the same generator.
+ */
+export interface UniformRows {
+  /** Fill `out` (length = dimensions) with trial t's uniforms; trials are asked for in order 0, 1, 2, … */
+  row(t: number, out: Float64Array): void;
+}
+
+export function uniformRows(seed: number, method: 'monte-carlo' | 'latin-hypercube', trials: number, dimensions: number): UniformRows {
+  const rng: Rng = createRng(seed);
+  if (method === 'monte-carlo') {
+    return {
+      row(_t, out) {
+        for (let d = 0; d < dimensions; d++) out[d] = rng.next();
+      },
+    };
+  }
+  const columns: Float64Array[] = [];
+  for (let d = 0; d < dimensions; d++) columns.push(Float64Array.from(latinHypercube(rng, trials)));
+  return {
+    row(t, out) {
+      for (let d = 0; d < dimensions; d++) out[d] = columns[d]![t]!;
+    },
+  };
+}

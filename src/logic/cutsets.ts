@@ -1,0 +1,492 @@
+/**
+ * Minimal cut sets of a root, read off its decision diagram with the probability cutoff and the
+ * maximum order applied while searching (the sets below the cutoff are never built).
+ *
+ * Method. Every path from the root to `true` names a set S (the variables left by their high
+ * edge; every other variable false), and distinct paths name distinct sets. S is a minimal cut set
+ * iff removing any x of S makes the function false. For the x tested at node n that is exactly
+ * "low(n) is false on the rest of the path", because the part of the path above n is the same
+ * with or without x. So the search walks paths depth first carrying, besides the current node,
+ * a short list of *constraints*: the low children of the nodes where it took the high edge. Each
+ * constraint is moved along with the same assignment (a skipped level means "false"); one that
+ * becomes `true`, or equal to the current node, proves no completion is minimal and ends the
+ * branch; one that becomes `false` is satisfied and dropped. A path reaching `true` with all its
+ * constraints `false` is a minimal cut set, found once. (This is the BDD reading of minimal
+ * solutions, minsol(f) = x·(minsol(f1) \ f0) ∪ minsol(f0), done as a bounded search rather than by
+ * building a second diagram.)
+ *
+ * Pruning (sound): for each node and each k ≤ maxOrder the best probability of any path to `true`
+ * using at most k high edges is computed bottom-up; a branch whose prefix probability times that
+ * bound is below the cutoff, or that needs more high edges than maxOrder allows, cannot contain a
+ * kept set and is not entered. Minimality is not used for the bound, so it only over-estimates.
+ *
+ * What was dropped. Pruned branches are searched again without cutoff or order limit, under a
+ * step budget (`truncationBudget`), to count the minimal cut sets they hold and add up their
+ * probabilities. If the budget suffices, `truncated` and `truncatedProbability` are exact
+ * (`truncatedExact: true`); otherwise `truncated` is a lower bound and `truncatedProbability` is
+ * left out.
+ *
+ * Non-coherent functions (with negation). Prime implicants are out of scope. Cut sets are those
+ * of the monotone relaxation f⁺(x) = max over y ≤ x of f(y) — the function with its negative
+ * literals dropped (replaced by true). Its minimal cut sets are the minimal sets S such that
+ * "S true, everything else false" makes f true; each is the positive part of a prime implicant.
+ * On the diagram f⁺ is ite(x, f⁺(high) ∨ f⁺(low), f⁺(low)) node by node. A set's probability is
+ * the product of its events' probabilities, and `coherent` is false. Since the diagram is
+ * canonical, f is monotone exactly when f⁺ is the same node, which is how `coherent` is decided.
+ * The exact top probability is not affected: it comes from the diagram of f itself.
+ */
+import { TRUE, type BddManager } from './bdd.js';
+
+export interface CutSet {
+  /** Variable indices, ascending. */
+  vars: number[];
+  /** Product of the variables' probabilities. */
+  probability: number;
+}
+
+export interface CutSetOptions {
+  /** Keep sets with probability ≥ cutoff (default 0: keep all). */
+  cutoff?: number;
+  /** Keep sets of at most this many events (default: no limit). */
+  maxOrder?: number;
+  /** Search steps allowed for counting what was dropped (default 100000). */
+  truncationBudget?: number;
+  /**
+   * The caller knows the function is monotone (its graph has no negation), so the relaxation need
+   * not be built. Wrong use gives wrong sets; leave unset when unsure.
+   */
+  monotone?: boolean;
+}
+
+export interface CutSetResult {
+  /** Sorted by probability, largest first; ties by variable indices (lexicographic). */
+  sets: CutSet[];
+  /** Minimal cut sets dropped by the cutoff or the order limit (exact, or a lower bound). */
+  truncated: number;
+  /** Sum of the probabilities of the dropped sets, present only when known exactly. */
+  truncatedProbability?: number;
+  /** Whether `truncated` (and `truncatedProbability`) are exact. */
+  truncatedExact: boolean;
+  /** False when the function is not monotone and the sets are those of its monotone relaxation. */
+  coherent: boolean;
+}
+
+/** The monotone relaxation f⁺ of a node (itself when the function is already monotone). */
+export function monotoneRelaxation(m: BddManager, root: number): number {
+  const nodes = m.topological([root]);
+  // Indexed by the ids that exist now; the new nodes made below are never looked up.
+  const map = new Int32Array(m.idLimit);
+  map[TRUE] = TRUE;
+  for (let i = 0; i < nodes.length; i++) {
+    const n = nodes[i]!;
+    const lo = map[m.low(n)]!;
+    const hi = map[m.high(n)]!;
+    map[n] = m.mk(m.levelOf(n), lo, m.or(hi, lo));
+  }
+  return map[root]!;
+}
+
+/**
+ * Rare-event sum Σ P(C) and min-cut upper bound 1 − Π(1 − P(C)) of a list of cut sets
+ * (NUREG-0492, Fault Tree Handbook). The product is formed as −expm1(Σ log1p(−P(C))), so small
+ * probabilities do not vanish against 1; both sums are compensated (Neumaier).
+ */
+export function cutSetBounds(sets: readonly { probability: number }[]): { rareEvent: number; mcub: number } {
+  const sum = new CompensatedSum();
+  const logs = new CompensatedSum();
+  let certain = false;
+  for (const s of sets) {
+    sum.add(s.probability);
+    // A set of probability 1 makes the product 0 (log −∞, which a compensated sum cannot hold).
+    if (s.probability >= 1) certain = true;
+    else logs.add(Math.log1p(-s.probability));
+  }
+  // `+ 0` turns the −0 of an empty list into 0.
+  return { rareEvent: sum.value(), mcub: certain ? 1 : -Math.expm1(logs.value()) + 0 };
+}
+
+class CompensatedSum {
+  private s = 0;
+  private c = 0;
+  add(x: number): void {
+    const t = this.s + x;
+    if (Math.abs(this.s) >= Math.abs(x)) this.c += this.s - t + x;
+    else this.c += x - t + this.s;
+    this.s = t;
+  }
+  value(): number {
+    return this.s + this.c;
+  }
+}
+
+/** Bound rows kept per node: k = 0..TABLE_ORDERS−1 exactly, beyond that the unlimited bound. */
+const TABLE_ORDERS = 13;
+
+export function minimalCutSets(
+  m: BddManager,
+  root: number,
+  p: ArrayLike<number>,
+  options: CutSetOptions = {},
+): CutSetResult {
+  const cutoff = options.cutoff ?? 0;
+  const maxOrder = options.maxOrder ?? Infinity;
+  if (!(cutoff >= 0)) throw new RangeError('cutoff must be ≥ 0');
+  if (!(maxOrder >= 0)) throw new RangeError('maxOrder must be ≥ 0');
+  const g = options.monotone ? root : monotoneRelaxation(m, root);
+  const tables = new SearchTables(m, g, p);
+  const search = new CutSetSearch(m, tables, p, Math.min(maxOrder, m.varCount), cutoff);
+  const counter = new CutSetSearch(m, tables, p, Infinity, 0);
+  const kept: CutSet[] = [];
+  let truncated = 0;
+  const dropped = new CompensatedSum();
+  let exact = true;
+  let budget = options.truncationBudget ?? 100_000;
+
+  search.run(
+    { node: g, vars: [], constraints: [], prob: 1 },
+    (vars) => {
+      const prob = setProbability(vars, p);
+      // The bound used a different product order; the kept/dropped decision uses this one.
+      if (prob >= cutoff) kept.push({ vars, probability: prob });
+      else {
+        truncated++;
+        dropped.add(prob);
+      }
+    },
+    (branch) => {
+      if (budget > 0) {
+        const left = counter.run(
+          branch.materialise(),
+          (vars) => {
+            truncated++;
+            dropped.add(setProbability(vars, p));
+          },
+          null,
+          budget,
+        );
+        if (left < 0) {
+          exact = false;
+          budget = 0;
+        } else budget = left;
+        return;
+      }
+      // Budget spent: count one set where one is certain to exist, so the count stays a lower bound.
+      exact = false;
+      if (branch.certainlyHoldsMinimalSet()) truncated++;
+    },
+  );
+
+  kept.sort(compareCutSets);
+  const result: CutSetResult = { sets: kept, truncated, truncatedExact: exact, coherent: g === root };
+  if (exact) result.truncatedProbability = dropped.value();
+  return result;
+}
+
+function setProbability(vars: readonly number[], p: ArrayLike<number>): number {
+  let prob = 1;
+  for (const v of vars) prob *= p[v]!;
+  return prob;
+}
+
+function compareCutSets(a: CutSet, b: CutSet): number {
+  if (a.probability !== b.probability) return b.probability - a.probability;
+  const n = Math.min(a.vars.length, b.vars.length);
+  for (let i = 0; i < n; i++) if (a.vars[i] !== b.vars[i]) return a.vars[i]! - b.vars[i]!;
+  return a.vars.length - b.vars.length;
+}
+
+// Local copies: imported bindings can cost a property read each in hot loops under some loaders.
+const F = 0;
+const T = 1;
+
+/** A branch of the search: where it is, what it has taken, and what must stay false. */
+interface Branch {
+  node: number;
+  vars: number[];
+  constraints: number[];
+  prob: number;
+}
+
+/** A branch the bounds cut off, handed to the caller without copying unless asked. */
+interface PrunedBranch {
+  /** A standalone copy, to search it again. */
+  materialise(): Branch;
+  /** True when it certainly holds a minimal cut set (no open constraint left). */
+  certainlyHoldsMinimalSet(): boolean;
+}
+
+/** Per-node tables of one monotone diagram, shared by the searches over it. */
+class SearchTables {
+  /** Node id → slot (0 false, 1 true, 2 + i the i-th reachable node). */
+  readonly slotOf: Int32Array;
+  /** Value with all remaining variables false. */
+  readonly zeroValue: Int32Array;
+  /** Fewest high edges on a path to true. */
+  readonly minOnes: Int32Array;
+  /** bound[slot·K + k]: best probability of a path to true with at most k high edges (k < K). */
+  readonly bound: Float64Array;
+  /** Best probability of any path to true. */
+  readonly boundAny: Float64Array;
+
+  constructor(m: BddManager, root: number, p: ArrayLike<number>) {
+    const { level, low, high, order } = m.arrays();
+    const nodes = m.topological([root]);
+    const n = nodes.length;
+    const K = TABLE_ORDERS;
+    this.slotOf = new Int32Array(m.idLimit);
+    this.slotOf[T] = 1;
+    this.zeroValue = new Int32Array(n + 2);
+    this.minOnes = new Int32Array(n + 2);
+    this.bound = new Float64Array((n + 2) * K);
+    this.boundAny = new Float64Array(n + 2);
+    this.zeroValue[1] = T;
+    this.minOnes[0] = 0x3fffffff;
+    for (let k = 0; k < K; k++) this.bound[K + k] = 1;
+    this.boundAny[1] = 1;
+    const b = this.bound;
+    for (let i = 0; i < n; i++) {
+      const node = nodes[i]!;
+      const s = i + 2;
+      this.slotOf[node] = s;
+      const ls = this.slotOf[low[node]!]!;
+      const hs = this.slotOf[high[node]!]!;
+      const pv = p[order[level[node]!]!]!;
+      this.zeroValue[s] = this.zeroValue[ls]!;
+      this.minOnes[s] = Math.min(this.minOnes[ls]!, this.minOnes[hs]! + 1);
+      this.boundAny[s] = Math.max(this.boundAny[ls]!, pv * this.boundAny[hs]!);
+      b[s * K] = b[ls * K]!;
+      for (let k = 1; k < K; k++) b[s * K + k] = Math.max(b[ls * K + k]!, pv * b[hs * K + k - 1]!);
+    }
+  }
+}
+
+/**
+ * The depth-first search over one monotone diagram. Paths can be as long as there are variables,
+ * so the search keeps its own stack: fixed-width records, constraint lists in a LIFO arena and
+ * the taken variables as a linked list whose cells are reclaimed when their branch is done. The
+ * loop allocates nothing but the arrays of the sets it reports.
+ */
+class CutSetSearch {
+  private readonly level: Int32Array;
+  private readonly low: Int32Array;
+  private readonly high: Int32Array;
+  private readonly order: Int32Array;
+  private readonly terminalLevel: number;
+  private readonly slack: number;
+
+  private rec = new Int32Array(6 * 256); // node, order, varsHead, consStart, consCount, cellMark
+  private recProb = new Float64Array(256);
+  private sp = 0;
+  private arena = new Int32Array(1024);
+  private arenaTop = 0;
+  private cellVar = new Int32Array(1024);
+  private cellNext = new Int32Array(1024);
+  private cellTop = 0;
+  /** Normalised constraints of the branch being expanded, and the cofactored ones for a child. */
+  private cons = new Int32Array(16);
+  private kid = new Int32Array(16);
+  /** Scratch for checks made from a pruned-branch callback, which must not touch `cons`. */
+  private spare = new Int32Array(16);
+
+  constructor(
+    m: BddManager,
+    private readonly t: SearchTables,
+    private readonly p: ArrayLike<number>,
+    private readonly maxOrder: number,
+    cutoff: number,
+  ) {
+    const a = m.arrays();
+    this.level = a.level;
+    this.low = a.low;
+    this.high = a.high;
+    this.order = a.order;
+    this.terminalLevel = m.varCount;
+    this.slack = cutoff * (1 - 1e-12);
+  }
+
+  /** Best probability of a path to true from `node` with at most k high edges (an upper bound). */
+  private best(node: number, k: number): number {
+    const s = this.t.slotOf[node]!;
+    return k < TABLE_ORDERS ? this.t.bound[s * TABLE_ORDERS + k]! : this.t.boundAny[s]!;
+  }
+
+  /**
+   * Moves constraints down to the level of `node` (skipped levels are false), drops satisfied
+   * ones and duplicates, into `out`. Returns the count, or −1 when a constraint proves the branch
+   * holds no minimal set (it became true, or equals the node: whatever makes the node true makes
+   * it true).
+   */
+  private normalise(node: number, src: Int32Array, from: number, count: number, out: Int32Array): number {
+    const L = this.level[node]!;
+    let n = 0;
+    for (let i = 0; i < count; i++) {
+      let c = src[from + i]!;
+      if (L === this.terminalLevel) c = this.t.zeroValue[this.t.slotOf[c]!]!;
+      else while (this.level[c]! < L) c = this.low[c]!;
+      if (c === F) continue;
+      if (c === T || c === node) return -1;
+      let dup = false;
+      for (let j = 0; j < n && !dup; j++) dup = out[j] === c;
+      if (!dup) out[n++] = c;
+    }
+    return n;
+  }
+
+  private ensureConstraintRoom(n: number): void {
+    if (this.cons.length < n) {
+      this.cons = new Int32Array(2 * n);
+      this.kid = new Int32Array(2 * n);
+      this.spare = new Int32Array(2 * n);
+    }
+  }
+
+  private push(node: number, order: number, head: number, cons: Int32Array, count: number, prob: number): void {
+    if (this.sp === this.recProb.length) {
+      const r = new Int32Array(this.rec.length * 2);
+      r.set(this.rec);
+      this.rec = r;
+      const q = new Float64Array(this.recProb.length * 2);
+      q.set(this.recProb);
+      this.recProb = q;
+    }
+    if (this.arenaTop + count > this.arena.length) {
+      const a = new Int32Array(2 * (this.arenaTop + count));
+      a.set(this.arena);
+      this.arena = a;
+    }
+    const o = this.sp * 6;
+    this.rec[o] = node;
+    this.rec[o + 1] = order;
+    this.rec[o + 2] = head;
+    this.rec[o + 3] = this.arenaTop;
+    this.rec[o + 4] = count;
+    this.rec[o + 5] = this.cellTop;
+    this.arena.set(cons.subarray(0, count), this.arenaTop);
+    this.arenaTop += count;
+    this.recProb[this.sp] = prob;
+    this.sp++;
+  }
+
+  private newCell(v: number, next: number): number {
+    if (this.cellTop === this.cellVar.length) {
+      const a = new Int32Array(this.cellVar.length * 2);
+      a.set(this.cellVar);
+      this.cellVar = a;
+      const b = new Int32Array(this.cellNext.length * 2);
+      b.set(this.cellNext);
+      this.cellNext = b;
+    }
+    this.cellVar[this.cellTop] = v;
+    this.cellNext[this.cellTop] = next;
+    return this.cellTop++;
+  }
+
+  private varsOf(head: number, extra = -1): number[] {
+    const out: number[] = extra >= 0 ? [extra] : [];
+    for (let c = head; c >= 0; c = this.cellNext[c]!) out.push(this.cellVar[c]!);
+    return out.sort((x, y) => x - y);
+  }
+
+  private pruned(
+    onPruned: (b: PrunedBranch) => void,
+    node: number,
+    head: number,
+    extraVar: number,
+    count: number,
+    prob: number,
+  ): void {
+    const kid = this.kid;
+    const self = this;
+    onPruned({
+      materialise: () => ({ node, vars: self.varsOf(head, extraVar), constraints: Array.from(kid.subarray(0, count)), prob }),
+      certainlyHoldsMinimalSet: () => node !== F && self.normalise(node, kid, 0, count, self.cons) === 0,
+    });
+  }
+
+  /**
+   * Searches from `start`. Calls `found` with each minimal cut set (variable indices, ascending)
+   * and `onPruned` with each branch the bounds cut off (null: nothing is cut off). With a budget,
+   * returns the steps left, or −1 if the budget ran out first.
+   */
+  run(
+    start: Branch,
+    found: (vars: number[]) => void,
+    onPruned: ((b: PrunedBranch) => void) | null,
+    budget = Infinity,
+  ): number {
+    this.sp = 0;
+    this.arenaTop = 0;
+    this.cellTop = 0;
+    let head0 = -1;
+    for (const v of start.vars) head0 = this.newCell(v, head0);
+    this.ensureConstraintRoom(start.constraints.length + 1);
+    this.kid.set(start.constraints);
+    this.push(start.node, start.vars.length, head0, this.kid, start.constraints.length, start.prob);
+    const level = this.level;
+    const low = this.low;
+    const high = this.high;
+    const minOnes = this.t.minOnes;
+    const slotOf = this.t.slotOf;
+    const maxOrder = this.maxOrder;
+    const slack = this.slack;
+
+    while (this.sp > 0) {
+      if (budget !== Infinity && budget-- <= 0) return -1;
+      this.sp--;
+      const o = this.sp * 6;
+      const rec = this.rec;
+      const node = rec[o]!;
+      const order = rec[o + 1]!;
+      const head = rec[o + 2]!;
+      const consStart = rec[o + 3]!;
+      const consCount = rec[o + 4]!;
+      const prob = this.recProb[this.sp]!;
+      // This record was the newest: its arena slice and its descendants' cells are free again.
+      this.arenaTop = consStart;
+      this.cellTop = rec[o + 5]!;
+      if (node === F) continue;
+      this.ensureConstraintRoom(consCount + 1);
+      const cons = this.cons;
+      const kid = this.kid;
+      const nc = this.normalise(node, this.arena, consStart, consCount, cons);
+      if (nc < 0) continue;
+      if (node === T) {
+        found(this.varsOf(head));
+        continue;
+      }
+      const L = level[node]!;
+      const v = this.order[L]!;
+      const pv = this.p[v]!;
+      const hi = high[node]!;
+      const lo = low[node]!;
+
+      // High edge: v joins the set; the low child becomes a constraint.
+      let k = 0;
+      for (let i = 0; i < nc; i++) {
+        const c = cons[i]!;
+        kid[k++] = level[c] === L ? high[c]! : c;
+      }
+      if (lo !== F) kid[k++] = lo;
+      const hiProb = prob * pv;
+      if (order + 1 + minOnes[slotOf[hi]!]! <= maxOrder && hiProb * this.best(hi, maxOrder - order - 1) >= slack) {
+        this.push(hi, order + 1, this.newCell(v, head), kid, k, hiProb);
+      } else if (onPruned) {
+        this.pruned(onPruned, hi, head, v, k, hiProb);
+      }
+
+      // Low edge: v stays false.
+      if (lo === F) continue;
+      k = 0;
+      for (let i = 0; i < nc; i++) {
+        const c = cons[i]!;
+        kid[k++] = level[c] === L ? low[c]! : c;
+      }
+      if (order + minOnes[slotOf[lo]!]! <= maxOrder && prob * this.best(lo, maxOrder - order) >= slack) {
+        this.push(lo, order, head, kid, k, prob);
+      } else if (onPruned) {
+        this.pruned(onPruned, lo, head, -1, k, prob);
+      }
+    }
+    return budget;
+  }
+}

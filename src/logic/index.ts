@@ -1,0 +1,20 @@
+/**
+ * The Boolean core: decision diagrams of a LogicGraph and what is computed on them. Pure
+ * functions and plain data; no file system, clock or randomness.
+ */
+export type { GateOp, LogicGate, LogicGraph, NodeRef } from './graph.js';
+export { BddManager, FALSE, TRUE, type BddArrays, type BddManagerOptions } from './bdd.js';
+export { LogicGraphError, NodeBudgetExceeded } from './errors.js';
+export { variableOrder, type OrderHeuristic } from './order.js';
+export { compile, type CompiledLogic, type CompileOptions } from './compile.js';
+export { probability, probabilityPair, ProbabilityEvaluator } from './probability.js';
+export {
+  cutSetBounds,
+  minimalCutSets,
+  monotoneRelaxation,
+  type CutSet,
+  type CutSetOptions,
+  type CutSetResult,
+} from './cutsets.js';
+export { importance, type ImportanceResult } from './importance.js';
+export { countDistribution } from './count.js';

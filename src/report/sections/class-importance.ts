@@ -1,0 +1,102 @@
+import type { ClassImportance, TopResult } from '../../analysis/results.js';
+import { barChart } from '../chart/bars.js';
+import { anchor, type SectionRule } from '../context.js';
+import { code, col, para, row, subheading, table } from '../blocks.js';
+import { formatCount, formatProbability, formatRatio, formatShare } from '../format.js';
+import { contentBox } from '../paper.js';
+import type { Block } from '../view.js';
+
+/**
+ * Importance of each component class, all its events taken together: a bar chart of the share of
+ * the top-event probability each class carries and the full table of group measures.
+ */
+export const classImportance: SectionRule = (results, ctx) => {
+  const tops = results.tops.filter((t): t is TopResult & { class_importance: ClassImportance[] } => (t.class_importance?.length ?? 0) > 0);
+  if (tops.length === 0) return null;
+  const blocks: Block[] = [
+    para(
+      'A component class groups the basic events that share one set of data — the four hoist motors, for example. ',
+      'The measures below treat all the events of a class at once: P1 is the top-event probability with every event of ',
+      'the class failed, P0 with every one of them working, P the probability as studied. Fussell–Vesely (FV) = (P − P0)/P ',
+      'is the fraction of the top-event probability that would go if the class never failed; Birnbaum = P1 − P0; ',
+      'risk achievement worth RAW = P1/P; risk reduction worth RRW = P/P0 — the group form of the measures defined by ',
+      'Vesely et al., NUREG/CR-3385 (1983), computed exactly on the decision diagram. ',
+      'Because a class’s events share their data, a class’s FV is also the reach of a change to that data (a better ',
+      'brake type, a new motor specification): it moves every member at once. Class shares overlap where a cut set ',
+      'holds events of two classes, so they need not add up to 100%.',
+    ),
+  ];
+  const width = Math.min(contentBox(ctx.paper).width, 480);
+  for (const top of tops) {
+    const ranked = top.class_importance;
+    const lead = ranked[0]!;
+    const figure = ctx.nextFigure();
+    const caption = `Fussell–Vesely importance of the component classes for ${top.id}`;
+    blocks.push(
+      subheading(anchor('class-importance', top.id), `${top.id} — ${top.title}`),
+      para(
+        'The class that carries the largest share of ',
+        code(top.id),
+        ' is ',
+        code(lead.class),
+        ` (${formatCount(lead.events.length)} ${lead.events.length === 1 ? 'event' : 'events'}): `,
+        `${formatShare(lead.fussell_vesely)} of its probability would go if that class never failed. `,
+        'With every event of the class failed the top-event probability would be ',
+        formatProbability(lead.p_failed),
+        `, ${formatRatio(lead.raw)} times the value as studied.`,
+      ),
+      {
+        kind: 'figure',
+        id: anchor('fig-class-importance', top.id),
+        number: figure,
+        caption,
+        parts: [
+          barChart(
+            ranked.map((c) => ({ label: c.class, value: c.fussell_vesely, text: formatShare(c.fussell_vesely) })),
+            { width, caption: `${figure}. ${caption}`, axis: 'Fussell–Vesely importance of the class (share of the top-event probability)' },
+          ),
+        ],
+      },
+      table({
+        id: anchor('tab-class-importance', top.id),
+        number: ctx.nextTable(),
+        caption: `Importance of the component classes for ${top.id}, ranked by Fussell–Vesely`,
+        columns: [
+          col('Rank', 'right', { width: 'auto' }),
+          col('Class', 'left', { code: true, width: 2 }),
+          col('Events', 'right', { width: 'auto' }),
+          col('P1 (all failed)', 'right', { width: 'auto' }),
+          col('P0 (all working)', 'right', { width: 'auto' }),
+          col('FV', 'right', { width: 'auto' }),
+          col('Birnbaum', 'right', { width: 'auto' }),
+          col('RAW', 'right', { width: 'auto' }),
+          col('RRW', 'right', { width: 'auto' }),
+        ],
+        rows: ranked.map((c, n) =>
+          row(
+            [
+              String(n + 1),
+              c.class,
+              formatCount(c.events.length),
+              formatProbability(c.p_failed),
+              formatProbability(c.p_working),
+              formatProbability(c.fussell_vesely),
+              formatProbability(c.birnbaum),
+              formatRatio(c.raw),
+              formatRatio(c.rrw),
+            ],
+            { sortKeys: [n + 1, c.class, c.events.length, c.p_failed, c.p_working, c.fussell_vesely, c.birnbaum, finite(c.raw), finite(c.rrw)] },
+          ),
+        ),
+        sortable: true,
+        sortedBy: { column: 0, descending: false },
+      }),
+    );
+  }
+  return { id: 'sec-class-importance', number: ctx.number, title: 'Importance of component classes', blocks };
+};
+
+/** Infinity cannot be a sort key; it sorts above every finite value. */
+function finite(x: number): number {
+  return Number.isFinite(x) ? x : Number.MAX_VALUE;
+}

@@ -1,0 +1,84 @@
+import type { ForecastResult } from '../../analysis/results.js';
+import { linearAxis, withTicks } from '../charts/axes.js';
+import { lineChart } from '../charts/line-chart.js';
+import { anchor, type SectionRule } from '../context.js';
+import { code, col, para, row, subheading, table, type Part } from '../blocks.js';
+import { formatCount, formatProbability } from '../format.js';
+import { contentBox } from '../paper.js';
+import type { Block } from '../view.js';
+
+/** Year ticks on the chart: every fifth year when the horizon is long. */
+function tickStep(years: number): number {
+  return years > 20 ? 5 : years > 8 ? 2 : 1;
+}
+
+/** The forecast: per top event, a line chart and a table of the probability year by year. */
+export const forecast: SectionRule = (results, ctx) => {
+  const list = results.forecast ?? [];
+  const base = list.find((f) => f.scenario === undefined);
+  if (!base || base.years.length === 0) return null;
+  const last = base.years[base.years.length - 1]!;
+  const scenarios = list.filter((f) => f.scenario !== undefined);
+  const blocks: Block[] = [
+    para(
+      `The top-event probabilities for each year from the snapshot date, ${results.study.as_of}, to ${last.date} `,
+      `(${formatCount(last.year)} years on), as the Weibull (ageing) components grow a year older each year. The other `,
+      'models keep their values: their data say nothing of age. ',
+      scenarios.length > 0
+        ? 'Each scenario that plans a renewal is shown beside the base case: the renewed component’s age restarts on the renewal date, and the scenario’s other changes apply throughout. '
+        : 'No scenario of the study plans a renewal, so only the base case is shown. ',
+      'The curves are the ageing trend a rehabilitation study weighs against the cost of renewal; they assume the data, ',
+      'exercise and maintenance stay as they are now.',
+    ),
+  ];
+  const width = Math.min(contentBox(ctx.paper).width, 480);
+  const series = [base, ...scenarios];
+  const name = (f: ForecastResult) => (f.scenario === undefined ? 'base case' : f.scenario);
+  for (const top of results.tops) {
+    const at = (f: ForecastResult, k: number) => f.years[k]?.tops[top.id];
+    const now = at(base, 0);
+    const end = at(base, base.years.length - 1);
+    const words: Part[] = [];
+    if (now !== undefined && end !== undefined) {
+      words.push('In the base case the probability of ', code(top.id), ` goes from ${formatProbability(now)} now to ${formatProbability(end)} in ${last.date.slice(0, 4)}. `);
+    }
+    for (const f of scenarios) {
+      const e = at(f, f.years.length - 1);
+      if (e !== undefined && end !== undefined) words.push('With ', code(f.scenario!), ` it is ${formatProbability(e)} in ${last.date.slice(0, 4)}. `);
+    }
+    blocks.push(subheading(anchor('forecast', top.id), `${top.id} — ${top.title}`), para(...words));
+    const figure = ctx.nextFigure();
+    const caption = `Forecast probability of ${top.id}, ${results.study.as_of.slice(0, 4)}–${last.date.slice(0, 4)}`;
+    const values = series.flatMap((f) => f.years.map((y) => y.tops[top.id]!).filter((v) => Number.isFinite(v)));
+    const step = tickStep(last.year);
+    const x = withTicks(
+      linearAxis([0, last.year], 'Year'),
+      base.years.filter((y) => y.year % step === 0).map((y) => ({ value: y.year, label: y.date.slice(0, 4) })),
+    );
+    const y = linearAxis(values, `Probability of ${top.id}`, { zero: true, format: formatProbability });
+    blocks.push({
+      kind: 'figure',
+      id: anchor('fig-forecast', top.id),
+      number: figure,
+      caption,
+      parts: [
+        lineChart(
+          series.map((f) => ({ name: f.scenario === undefined ? 'base case' : `${f.scenario} — ${f.title ?? ''}`, points: f.years.map((yr) => ({ x: yr.year, y: yr.tops[top.id]! })) })),
+          { width, label: `${figure}. ${caption}`, x, y, legend: true },
+        ),
+      ],
+    });
+    blocks.push(
+      table({
+        id: anchor('tab-forecast', top.id),
+        number: ctx.nextTable(),
+        caption: `Forecast probability of ${top.id} by year`,
+        columns: [col('Year', 'right', { width: 'auto' }), col('Date', 'left', { width: 'auto' }), ...series.map((f) => col(name(f), 'right', { width: 'auto' as const }))],
+        rows: base.years.map((yr, k) => row([formatCount(yr.year), yr.date, ...series.map((f) => formatProbability(at(f, k)))])),
+      }),
+    );
+  }
+  return { id: 'sec-forecast', number: ctx.number, title: 'Forecast', newPage: true, blocks };
+};
+
+

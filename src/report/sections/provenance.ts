@@ -1,0 +1,98 @@
+import type { ParameterResult } from '../../analysis/results.js';
+import { col, para, row, strong, subheading, table } from '../blocks.js';
+import type { SectionRule } from '../context.js';
+import { formatCount, formatQuantity } from '../format.js';
+import type { Block } from '../view.js';
+
+/**
+ * The provenance register: every number of the study, as written, as used, where it comes from and
+ * what uses it; then every source. Numbers without a source are flagged, not hidden.
+ */
+export const provenance: SectionRule = (results, ctx) => {
+  if (results.parameters.length === 0 && results.sources.length === 0) return null;
+  const unsourced = results.parameters.filter((p) => !p.source);
+  const blocks: Block[] = [];
+  blocks.push(
+    para(
+      `The study states ${formatCount(results.parameters.length)} numbers and cites ${formatCount(results.sources.length)} sources. `,
+      ...(unsourced.length > 0
+        ? [strong(`${formatCount(unsourced.length)} ${unsourced.length === 1 ? 'number cites' : 'numbers cite'} no source`), ' and ', unsourced.length === 1 ? 'is' : 'are', ' flagged below; each needs a reference or an explicit engineering judgement before the study is issued.']
+        : ['Every number cites a source.']),
+    ),
+    subheading('sub-parameters', 'Parameters'),
+    table({
+      id: 'tab-parameters',
+      number: ctx.nextTable(),
+      caption: 'Parameter provenance',
+      columns: [
+        col('Parameter', 'left', { code: true, width: 'auto' }),
+        col('As written', 'right', { width: 'auto' }),
+        col('Used as', 'right', { width: 'auto' }),
+        col('Source', 'left', { code: true, width: 'auto' }),
+        col('Where in the source', 'left', { width: 2 }),
+        col('Range / uncertainty', 'left', { width: 2 }),
+        col('Used by', 'left', { code: true, width: 2 }),
+      ],
+      rows: results.parameters.map((p) =>
+        row(
+          [
+            p.key,
+            p.written,
+            formatQuantity(p.quantity, p.value),
+            p.source ?? 'UNSOURCED',
+            [p.note, p.fit ? `fitted (${p.fit})` : undefined, `${p.at.file}:${p.at.line}`].filter(Boolean).join('; '),
+            spreadText(p),
+            p.used_by.join(', ') || 'not used',
+          ],
+          p.source ? {} : { flag: true },
+        ),
+      ),
+      sortable: true,
+    }),
+  );
+  if (results.sources.length > 0) {
+    blocks.push(
+      subheading('sub-sources', 'Sources'),
+      table({
+        id: 'tab-sources',
+        number: ctx.nextTable(),
+        caption: 'Sources cited',
+        columns: [
+          col('Source', 'left', { code: true, width: 'auto' }),
+          col('Title', 'left', { width: 3 }),
+          col('Reference', 'left', { width: 2 }),
+          col('Note', 'left', { width: 2 }),
+          col('Cited by', 'left', { code: true, width: 3 }),
+        ],
+        rows: results.sources.map((s) =>
+          row([
+            s.id,
+            s.invented ? `${s.title} (invented)` : s.title,
+            s.reference ?? '—',
+            s.note ?? '—',
+            s.used_by.join(', ') || 'not cited by any number',
+          ]),
+        ),
+      }),
+    );
+  }
+  return { id: 'sec-provenance', number: ctx.number, title: 'Parameter provenance register', newPage: true, blocks };
+};
+
+const IN_UNIT = ['median', 'mean', 'sd', 'min', 'max', 'mode', 'scale'];
+
+/** Range for sensitivity and the uncertainty distribution, as the analysis recorded them. */
+function spreadText(p: ParameterResult): string {
+  const parts: string[] = [];
+  if (p.range) parts.push(`range ${formatQuantity(p.quantity, p.range[0])} – ${formatQuantity(p.quantity, p.range[1])}`);
+  if (p.uncertainty) {
+    // Keys follow the study's distribution fields (DESIGN.md): location/spread values are in the
+    // parameter's own unit, shape-like ones (error factor, a, b, shape) are plain numbers.
+    const { kind, ...fields } = p.uncertainty;
+    const described = Object.entries(fields).map(
+      ([k, v]) => `${k} ${typeof v === 'number' ? formatQuantity(IN_UNIT.includes(k) ? p.quantity : 'number', v) : v}`,
+    );
+    parts.push(`${kind !== undefined ? String(kind) : 'distribution'}: ${described.join(', ')}`);
+  }
+  return parts.join('; ') || '—';
+}

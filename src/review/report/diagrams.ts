@@ -1,0 +1,183 @@
+/**
+ * Diagrams of the changed subtrees, drawn with the appendix's own diagram pieces (same symbols,
+ * layout, page partition), so a reviewer sees the comparison in the form the appendix uses.
+ *
+ * Which subtrees: every gate that was re-wired or redefined, and every gate with a changed basic
+ * event among its inputs, less those already inside another such subtree. Each is drawn as it is
+ * in NEW; a subtree that lost nodes is drawn as it was in OLD too. A changed node is marked by a
+ * bracketed word in front of its title ([NEW], [RE-WIRED], [CHANGED], [REMOVED]), never by colour
+ * alone, so the marks survive black-and-white printing and a screen reader.
+ */
+import type { Results } from '../../analysis/results.js';
+import { contentBox } from '../../report/paper.js';
+import { windowed } from '../../report/diagram/canvas.js';
+import { drawFigure } from '../../report/diagram/draw.js';
+import { G, capacityFor, layoutTree } from '../../report/diagram/layout.js';
+import { drawLegend } from '../../report/diagram/legend.js';
+import { diagramModel, type DiagramModel, type DiagramNode } from '../../report/diagram/model.js';
+import { partition } from '../../report/diagram/partition.js';
+import type { FigureBlock, FigurePart, Paper } from '../../report/view.js';
+import type { Comparison } from '../compare.js';
+
+export type Mark = 'NEW' | 'RE-WIRED' | 'CHANGED' | 'REMOVED';
+
+export const MARK_MEANING: Record<Mark, string> = {
+  NEW: 'added in the new revision',
+  'RE-WIRED': 'gate whose inputs, logic or k changed',
+  CHANGED: 'basic event whose definition or data changed',
+  REMOVED: 'in the old revision only',
+};
+
+/** Node id → mark, in NEW and in OLD. */
+export function changeMarks(c: Comparison): { inNew: Map<string, Mark>; inOld: Map<string, Mark> } {
+  const inNew = new Map<string, Mark>();
+  const inOld = new Map<string, Mark>();
+  const l = c.changes.logic;
+  for (const g of l.gates.added) inNew.set(g.id, 'NEW');
+  for (const e of l.events.added) inNew.set(e.id, 'NEW');
+  for (const g of l.gates.removed) inOld.set(g.id, 'REMOVED');
+  for (const e of l.events.removed) inOld.set(e.id, 'REMOVED');
+  for (const g of l.gates.changed) {
+    if (g.reordered_only || g.aspects.every((a) => a === 'title')) continue;
+    inNew.set(g.id, 'RE-WIRED');
+    inOld.set(g.id, 'RE-WIRED');
+  }
+  const changedEvents = new Set<string>();
+  for (const e of l.events.changed) if (e.aspects.some((a) => a !== 'title' && a !== 'assumptions')) changedEvents.add(e.id);
+  for (const p of c.changes.data.parameters.changed) if (p.aspects.includes('value')) for (const id of p.used_by) changedEvents.add(id);
+  for (const id of changedEvents) {
+    if (!inNew.has(id)) inNew.set(id, 'CHANGED');
+    if (!inOld.has(id)) inOld.set(id, 'CHANGED');
+  }
+  return { inNew, inOld };
+}
+
+export function changedSubtreeFigures(c: Comparison, oldResults: Results, newResults: Results, paper: Paper, nextFigure: () => string): FigureBlock[] {
+  const { inNew, inOld } = changeMarks(c);
+  const newRoots = subtreeRoots(newResults, inNew);
+  if (newRoots.length === 0) return [];
+  const figures: FigureBlock[] = [];
+  const legendNumber = nextFigure();
+  const legendCaption = 'Key to the symbols of the logic diagrams';
+  figures.push({
+    kind: 'figure',
+    id: 'fig-compare-legend',
+    number: legendNumber,
+    caption: legendCaption,
+    parts: [drawLegend(`${legendNumber}. ${legendCaption}`, Math.min(contentBox(paper).width, 470))],
+  });
+  const label = (r: Results) => `revision ${r.study.revision}`;
+  for (const root of newRoots) {
+    figures.push(...subtreeFigures(newResults, inNew, root, `Changed subtree ${root}, as in ${label(newResults)}`, paper, nextFigure, `cmp-new-${root}`));
+    const oldGate = oldResults.logic.gates.find((g) => g.id === root);
+    if (oldGate && hasRemovedBelow(oldResults, inOld, root)) {
+      figures.push(...subtreeFigures(oldResults, inOld, root, `The same subtree ${root}, as it was in ${label(oldResults)}`, paper, nextFigure, `cmp-old-${root}`));
+    }
+  }
+  return figures;
+}
+
+/** The changed gates and the parents of changed events, minus those inside another one's subtree. */
+function subtreeRoots(results: Results, marks: Map<string, Mark>): string[] {
+  const gates = new Map(results.logic.gates.map((g) => [g.id, g]));
+  const candidates = new Set<string>();
+  for (const g of results.logic.gates) {
+    if (marks.has(g.id)) candidates.add(g.id);
+    else if (g.inputs.some((i) => !gates.has(i) && marks.has(i))) candidates.add(g.id);
+  }
+  const below = (id: string, seen = new Set<string>()): Set<string> => {
+    const g = gates.get(id);
+    if (!g || seen.has(id)) return seen;
+    for (const i of g.inputs) {
+      if (gates.has(i) && !seen.has(i)) {
+        seen.add(i);
+        below(i, seen);
+      }
+    }
+    return seen;
+  };
+  const inside = new Set<string>();
+  for (const r of candidates) for (const d of below(r)) if (candidates.has(d)) inside.add(d);
+  // A gate added in NEW sits under its re-wired parent; its own subtree is drawn there.
+  return results.logic.gates.map((g) => g.id).filter((id) => candidates.has(id) && !inside.has(id));
+}
+
+function hasRemovedBelow(results: Results, marks: Map<string, Mark>, root: string): boolean {
+  const gates = new Map(results.logic.gates.map((g) => [g.id, g]));
+  const stack = [root];
+  const seen = new Set<string>();
+  while (stack.length) {
+    const id = stack.pop()!;
+    if (seen.has(id)) continue;
+    seen.add(id);
+    if (marks.get(id) === 'REMOVED') return true;
+    for (const i of gates.get(id)?.inputs ?? []) stack.push(i);
+  }
+  return false;
+}
+
+/** The diagram model of one subtree: its gates only, titles carrying the marks, no top-event box. */
+function markedModel(results: Results, marks: Map<string, Mark>, root: string): DiagramModel {
+  const base = diagramModel(results);
+  const gateIds: string[] = [];
+  const visit = (id: string) => {
+    const n = base.node(id);
+    if (n.kind !== 'gate' || gateIds.includes(id)) return;
+    gateIds.push(id);
+    for (const i of n.inputs) visit(i);
+  };
+  visit(root);
+  const node = (id: string): DiagramNode => {
+    const n = base.node(id);
+    const mark = marks.get(id);
+    if (!mark || n.kind === 'missing') return n;
+    const title = n.kind === 'gate' ? n.title ?? '' : n.title;
+    return { ...n, title: `[${mark}] ${title}`.trim() };
+  };
+  return { tops: [], node, gateIds, eventIds: base.eventIds };
+}
+
+function subtreeFigures(results: Results, marks: Map<string, Mark>, root: string, caption: string, paper: Paper, nextFigure: () => string, idPrefix: string): FigureBlock[] {
+  const model = markedModel(results, marks, root);
+  const capacity = capacityFor(paper);
+  const trees = partition(model, capacity);
+  const numbers = new Map(trees.map((t, i) => [t.root, { number: nextFigure(), anchor: `fig-${idPrefix}${i === 0 ? '' : `-${t.root}`}`.replace(/[^A-Za-z0-9_-]/g, '_') }]));
+  const continuation = (id: string) => numbers.get(id) ?? { number: 'Figure ?', anchor: `fig-${idPrefix}` };
+  const marked = [...marks.entries()].filter(([id]) => model.gateIds.includes(id) || model.gateIds.some((g) => gateHasInput(model, g, id)));
+  return trees.map((t, i) => {
+    const { number, anchor } = numbers.get(t.root)!;
+    const text = i === 0 ? caption : `${caption}: continuation ${t.root}`;
+    const layout = layoutTree(t.tree, false);
+    const svg = drawFigure({ model, layout, caption: `${number}. ${text}`, tops: [], continuation });
+    const note =
+      i === 0 && marked.length > 0
+        ? `Marked: ${marked.map(([id, m]) => `[${m}] ${id}`).join(', ')}.`
+        : t.referencedFrom.length > 0
+          ? `Continued from ${t.referencedFrom.map((r) => numbers.get(r)!.number.toLowerCase()).join(', ')}.`
+          : undefined;
+    return {
+      kind: 'figure' as const,
+      id: anchor,
+      number,
+      caption: text,
+      parts: slice(svg, layout.width, layout.height, layout.columns, capacity.columns),
+      ...(note ? { note } : {}),
+    };
+  });
+}
+
+function gateHasInput(model: DiagramModel, gate: string, id: string): boolean {
+  const n = model.node(gate);
+  return n.kind === 'gate' && n.inputs.includes(id);
+}
+
+/** A figure wider than a page is cut at column boundaries into page-wide parts (as the appendix does). */
+function slice(svg: string, width: number, height: number, columns: number, perPage: number): FigurePart[] {
+  if (columns <= perPage) return [{ svg, width, height }];
+  const parts: FigurePart[] = [];
+  for (let first = 0; first < columns; first += perPage) {
+    const count = Math.min(perPage, columns - first);
+    parts.push({ svg: windowed(svg, first * G.column, count * G.column + 2 * G.margin, height), width: count * G.column + 2 * G.margin, height });
+  }
+  return parts;
+}
