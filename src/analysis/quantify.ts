@@ -3,7 +3,7 @@
  * (with the cutoff and maximum order), the rare-event and min-cut upper bound beside it, and the
  * importance of every basic event, all for one set of event probabilities.
  */
-import { compile, cutSetBounds, importance, minimalCutSets, NodeBudgetExceeded, probability, type CompiledLogic } from '../logic/index.js';
+import { compile, cutSetBounds, importance, minimalCutSets, NodeBudgetExceeded, probability, ProbabilityEvaluator, type CompiledLogic } from '../logic/index.js';
 import { ExpansionBudgetExceeded, topDownCutSets } from '../logic/cut-sets-topdown.js';
 import { StudyError } from '../study/errors.js';
 import type { Study } from '../study/types.js';
@@ -113,8 +113,31 @@ export function boundWarning(study: Study): { code: string; message: string } {
   };
 }
 
+/** Probability of every study gate, in one pass over the diagram (for the numbers under each diagram node). */
+function gateProbabilities(study: Study, model: LogicModel, compiled: CompiledLogic, p: Float64Array): Map<string, number> {
+  const ids = study.gates.map((g) => g.id);
+  const roots = ids.map((id) => compiled.gateRoots[model.gate.get(id)!]!);
+  const values = new ProbabilityEvaluator(compiled.manager, roots).evaluate(p);
+  return new Map(ids.map((id, i) => [id, values[i]!]));
+}
+
+/** The gates under a top (its own gate included), in study order. */
+function gatesUnder(study: Study, gate: string): string[] {
+  const byId = new Map(study.gates.map((g) => [g.id, g]));
+  const seen = new Set<string>();
+  const stack = [gate];
+  while (stack.length) {
+    const id = stack.pop()!;
+    if (seen.has(id) || !byId.has(id)) continue;
+    seen.add(id);
+    stack.push(...byId.get(id)!.inputs);
+  }
+  return study.gates.map((g) => g.id).filter((id) => seen.has(id));
+}
+
 export function quantifyTops(study: Study, model: LogicModel, compiled: CompiledLogic, p: Float64Array): TopResult[] {
   const ids = model.graph.variables;
+  const gateP = gateProbabilities(study, model, compiled, p);
   return study.tops.map((top, t) => {
     const root = compiled.gateRoots[model.topGates[t]!]!;
     const exact = probability(compiled.manager, root, p);
@@ -157,6 +180,7 @@ export function quantifyTops(study: Study, model: LogicModel, compiled: Compiled
       cut_sets: cutSets,
       cut_set_summary: summary,
       importance: ranked.filter((r) => r.birnbaum !== 0 || r.fussell_vesely !== 0),
+      gate_probabilities: Object.fromEntries(gatesUnder(study, top.gate).map((id) => [id, gateP.get(id)!])),
       bdd_nodes: compiled.manager.size(root),
     };
   });
