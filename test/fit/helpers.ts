@@ -4,7 +4,9 @@ import { createRng } from '../../src/reliability/random.js';
 import type { LifeObservation } from '../../src/reliability/fit/index.js';
 import { fitData, parseLifeData } from '../../src/study/life-data.js';
 
-export const BALL_BEARINGS_PATH = '/work/shared/reference/ball-bearings.csv';
+// A copy of shared/reference/ball-bearings.csv (Lieblein & Zelen 1956 data, source in its header), kept in
+// the repository so the tests do not depend on where the shared folder sits.
+export const BALL_BEARINGS_PATH = 'test/fixtures/reference/ball-bearings.csv';
 
 /** Lieblein & Zelen (1956) ball-bearing fatigue lives (23, all failures), read through our own parser. */
 export function ballBearings(): LifeObservation[] {
