@@ -28,7 +28,7 @@ export function formatScientific(x: number): string {
   if (!Number.isFinite(x)) return x > 0 ? '∞' : x < 0 ? '−∞' : DASH;
   if (x === 0) return '0';
   // toExponential rounds to the nearest representable 3-figure mantissa and carries into the exponent
-  // (9.995e-5 → "1.00e-4"), which is what a hand-written table would show.
+  // (9.996e-5 → "1.00e-4"), which is what a hand-written table would show.
   const [mantissa, exponent] = x.toExponential(2).split('e');
   const e = Number(exponent);
   const sign = e < 0 ? '-' : '+';

@@ -22,7 +22,7 @@ afterAll(() => {
   if (dir) rmSync(dir, { recursive: true, force: true });
 });
 
-function poppler(tool: 'pdftotext' | 'pdfinfo', pdf: Buffer, name: string, args: string[] = []): string {
+function poppler(tool: 'pdftotext' | 'pdfinfo' | 'pdffonts', pdf: Buffer, name: string, args: string[] = []): string {
   const file = join(dir, name);
   writeFileSync(file, pdf);
   return execFileSync(`/usr/bin/${tool}`, [...args, file, ...(tool === 'pdftotext' ? ['-'] : [])], { encoding: 'utf8' });
@@ -112,6 +112,20 @@ describe.skipIf(!havePoppler)('PDF appendix read back with poppler', () => {
     expect(info).toMatch(/Page size:\s+595\.28 x 841\.89 pts \(A4\)/);
     const letter = poppler('pdfinfo', await renderPdf(buildViewModel(results, fixtureInputs(), { paper: 'letter' })), 'letter.pdf');
     expect(letter).toMatch(/Page size:\s+612 x 792 pts \(letter\)/);
+  });
+
+  it('embeds every font it uses, and uses only the Roboto faces', async () => {
+    const fonts = poppler('pdffonts', await renderPdf(view), 'fonts.pdf')
+      .split('\n')
+      .slice(2)
+      .filter((l) => l.trim() !== '');
+    expect(fonts.length).toBeGreaterThanOrEqual(2);
+    for (const line of fonts) {
+      // Columns: name, type (two words), encoding, emb, sub, uni, object, generation.
+      const cols = line.trim().split(/\s+/);
+      expect(cols[0], line).toMatch(/^[A-Z]{6}\+Roboto-(Regular|Medium|Italic|MediumItalic)$/);
+      expect(cols[cols.length - 5], line).toBe('yes');
+    }
   });
 
   it('shows no watermark once the study is issued', async () => {

@@ -13,6 +13,9 @@ import { formatNumber, formatProbability } from '../format.js';
 
 export const FONT = 7;
 
+/** Room right of the frame, for the last x tick label. */
+export const RIGHT = 24;
+
 export interface Axis {
   kind: 'linear' | 'log';
   domain: [number, number];

@@ -6,7 +6,7 @@
 import { ACCENT, INK, MUTED, createCanvas, round, serialize, text } from '../diagram/canvas.js';
 import { formatCount } from '../format.js';
 import type { FigurePart } from '../view.js';
-import { BELOW_FRAME, FONT, drawAxes, leftMargin, linearAxis, logAxis, makeFrame } from './axes.js';
+import { BELOW_FRAME, FONT, RIGHT, drawAxes, leftMargin, linearAxis, logAxis, makeFrame } from './axes.js';
 
 export interface HistogramOptions {
   width: number;
@@ -26,7 +26,7 @@ export function histogramChart(h: { edges: number[]; counts: number[] }, opts: H
   const top = 6 + rows * (FONT + 3);
   const height = top + frameHeight + BELOW_FRAME + 4;
   const canvas = createCanvas(opts.width, height, opts.label);
-  const frame = makeFrame(left, top, opts.width - left - 14, frameHeight, x, y);
+  const frame = makeFrame(left, top, opts.width - left - RIGHT, frameHeight, x, y);
   drawAxes(canvas.svg, frame, x, y);
 
   const bars = canvas.svg.append('g').attr('data-part', 'bins');

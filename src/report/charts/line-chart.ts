@@ -5,7 +5,7 @@
  */
 import { ACCENT, MUTED, createCanvas, round, serialize, text } from '../diagram/canvas.js';
 import type { FigurePart } from '../view.js';
-import { BELOW_FRAME, FONT, SERIES_STYLES, drawAxes, drawLegend, leftMargin, makeFrame, type Axis } from './axes.js';
+import { BELOW_FRAME, FONT, RIGHT, SERIES_STYLES, drawAxes, drawLegend, leftMargin, makeFrame, type Axis } from './axes.js';
 
 export interface Series {
   name: string;
@@ -32,7 +32,7 @@ export function lineChart(series: Series[], opts: LineChartOptions): FigurePart 
   const frameHeight = opts.frameHeight ?? 170;
   const left = leftMargin(opts.y);
   const top = 8;
-  const right = 14;
+  const right = RIGHT;
   const showLegend = opts.legend ?? series.length > 1;
   const legendHeight = showLegend ? series.length * (FONT + 5) + 4 : 0;
   const height = top + frameHeight + BELOW_FRAME + legendHeight + 4;

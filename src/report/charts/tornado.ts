@@ -8,7 +8,7 @@
 import { ACCENT, INK, createCanvas, round, serialize, text } from '../diagram/canvas.js';
 import { wrap } from '../diagram/text.js';
 import type { FigurePart } from '../view.js';
-import { BELOW_FRAME, FONT, drawAxes, drawLegend, linearAxis, logAxis, makeFrame } from './axes.js';
+import { BELOW_FRAME, FONT, RIGHT, drawAxes, drawLegend, linearAxis, logAxis, makeFrame } from './axes.js';
 import { formatProbability } from '../format.js';
 
 export interface TornadoRow {
@@ -36,7 +36,7 @@ export function tornadoChart(rows: TornadoRow[], base: number, opts: { width: nu
   const canvas = createCanvas(opts.width, height, opts.label);
   // No y ticks: the rows are labelled at the left instead.
   const y = { kind: 'linear' as const, domain: [0, 1] as [number, number], ticks: [], title: '' };
-  const frame = makeFrame(left, top, opts.width - left - 14, frameHeight, x, y);
+  const frame = makeFrame(left, top, opts.width - left - RIGHT, frameHeight, x, y);
   drawAxes(canvas.svg, frame, x, y);
 
   const g = canvas.svg.append('g').attr('data-part', 'bars');

@@ -1,4 +1,5 @@
 import type { Results } from '../../analysis/results.js';
+import { listWords } from '../blocks.js';
 import { anchor } from '../context.js';
 import { contentBox } from '../paper.js';
 import type { FigureBlock, FigurePart, Paper } from '../view.js';
@@ -78,13 +79,9 @@ function noteFor(t: FigureTree, model: DiagramModel, numbers: Map<string, { numb
   if (t.tops.length > 0 && model.node(t.root).kind === 'gate') parts.push(`Top gate: ${t.root}.`);
   if (t.referencedFrom.length > 0) {
     const from = t.referencedFrom.map((r) => numbers.get(r)!.number.toLowerCase());
-    parts.push(`Continued from ${list(from)}${t.reason === 'shared' ? ' (drawn once, referenced by transfer)' : ''}.`);
+    parts.push(`Continued from ${listWords(from)}${t.reason === 'shared' ? ' (drawn once, referenced by transfer)' : ''}.`);
   }
   return parts.length > 0 ? parts.join(' ') : undefined;
-}
-
-function list(items: string[]): string {
-  return items.length <= 1 ? items.join('') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
 }
 
 /**

@@ -2,13 +2,16 @@ import type { SectionRule } from '../context.js';
 import { annex } from './annex.js';
 import { assumptions } from './assumptions.js';
 import { cautions } from './cautions.js';
+import { commonCause } from './common-cause.js';
 import { classImportance } from './class-importance.js';
 import { cutSets } from './cut-sets.js';
 import { description } from './description.js';
 import { diagrams } from './diagrams.js';
 import { events } from './events.js';
+import { eventTrees } from './event-trees.js';
 import { forecast } from './forecast.js';
 import { fits } from './fits.js';
+import { gateCounts } from './gate-counts.js';
 import { importance } from './importance.js';
 import { manifest } from './manifest.js';
 import { provenance } from './provenance.js';
@@ -49,9 +52,9 @@ export const SECTIONS: readonly SectionSlot[] = [
   { name: 'scenarios', rule: scenarios },
   { name: 'uncertainty', rule: uncertainty },
   { name: 'forecast', rule: forecast },
-  { name: 'common-cause' },
-  { name: 'gate-counts' },
-  { name: 'event-trees' },
+  { name: 'common-cause', rule: commonCause },
+  { name: 'gate-counts', rule: gateCounts },
+  { name: 'event-trees', rule: eventTrees },
   { name: 'fits', rule: fits },
   { name: 'manifest', rule: manifest },
   { name: 'annex', rule: annex },

@@ -1,0 +1,200 @@
+import type { EventTreeResult, FailureModeResult } from '../../analysis/results.js';
+import { eventTreeDiagram } from '../charts/event-tree.js';
+import { anchor, type BuildContext, type SectionRule } from '../context.js';
+import { callout, code, col, para, row, strong, subheading, table, type Part } from '../blocks.js';
+import { formatProbability, formatRatio } from '../format.js';
+import { contentBox } from '../paper.js';
+import type { Block } from '../view.js';
+
+/**
+ * The load-range event trees: the load, the headings, the diagram, every sequence and outcome per
+ * year (and by load range), set against the product of branch numbers; then the dam's failure
+ * modes combined under the shared load.
+ */
+export const eventTrees: SectionRule = (results, ctx) => {
+  const trees = results.event_trees ?? [];
+  if (trees.length === 0) return null;
+  const blocks: Block[] = [
+    para(
+      'An event tree follows an initiating load — here a flood, split into ranges of annual exceedance probability (AEP) — ',
+      'through the questions that decide what happens (its headings) to an outcome. Each path is a sequence. A heading’s ',
+      'failure branch is a fixed or per-range probability, or a condition on the fault trees of this appendix: a gate or ',
+      'top event, or “at least k of the counted gates fail” with k set by what each range of flood needs. ',
+      'Every sequence, range by range, is quantified as one Boolean expression — the AND of the conditions on its failure ',
+      'branches and the negations of those on its success branches — on the same decision diagram as the fault trees. A ',
+      'basic event that several headings share is then conditioned correctly, which a product of branch numbers cannot ',
+      'do; the tables show both. Probability headings are independent of every basic event and enter as factors. ',
+      'A range’s annual probability is the difference of the AEPs that bound it, so the outcomes are annual probabilities.',
+    ),
+  ];
+  for (const t of trees) blocks.push(...treeBlocks(t, results.failure_modes ?? [], ctx));
+  return { id: 'sec-event-trees', number: ctx.number, title: 'Event trees', newPage: true, blocks };
+};
+
+function aepText(r: EventTreeResult['load']['ranges'][number]): string {
+  if (r.aep) return `${formatProbability(r.aep[0])} to ${formatProbability(r.aep[1])}`;
+  return `frequency ${formatProbability(r.frequency)} per year`;
+}
+
+function pathText(t: EventTreeResult, path: ('works' | 'fails' | null)[]): string {
+  return path.map((s, h) => (s ? `${t.headings[h]!.id} ${s}` : null)).filter(Boolean).join(' · ');
+}
+
+function treeBlocks(t: EventTreeResult, modes: FailureModeResult[], ctx: BuildContext): Block[] {
+  const ranges = t.load.ranges;
+  const perYear = t.load.basis === 'aep' ? 'annual probability' : 'per year';
+  const blocks: Block[] = [subheading(anchor('tree', t.id), `${t.id} — ${t.title}`)];
+  blocks.push(
+    table({
+      id: anchor('tab-tree-load', t.id),
+      number: ctx.nextTable(),
+      caption: `${t.load.title}: load ranges of ${t.id}`,
+      columns: [col('Range', 'left', { code: true, width: 'auto' }), col('Description', 'left', { width: 3 }), col('AEP from – to', 'right', { width: 'auto' }), col(perYear, 'right', { width: 'auto' })],
+      rows: ranges.map((r) => row([r.id, r.title, aepText(r), formatProbability(r.probability)])),
+      note: [t.load.source ? `Source: ${t.load.source}${t.load.note ? `, ${t.load.note}` : ''}.` : 'The load cites no source.', `Total over the ranges: ${formatProbability(t.load.total)}.`].join(' '),
+    }),
+    table({
+      id: anchor('tab-tree-headings', t.id),
+      number: ctx.nextTable(),
+      caption: `Headings of ${t.id}: probability that each fails on its own, by load range`,
+      columns: [
+        col('Heading', 'left', { code: true, width: 'auto' }),
+        col('Question', 'left', { width: 3 }),
+        col('Fails when', 'left', { width: 3 }),
+        ...ranges.map((r) => col(r.id, 'right', { width: 'auto' })),
+      ],
+      rows: t.headings.map((h) => row([h.id, h.title, h.condition, ...h.fails.map((f) => formatProbability(f))])),
+    }),
+  );
+  const figure = ctx.nextFigure();
+  const caption = `Event tree ${t.id}: sequences and their ${perYear}`;
+  const width = contentBox(ctx.paper).width;
+  blocks.push({
+    kind: 'figure',
+    id: anchor('fig-tree', t.id),
+    number: figure,
+    caption,
+    parts: [
+      eventTreeDiagram(
+        {
+          label: `${figure}. ${caption}`,
+          load: { title: t.load.title, detail: `${formatProbability(t.load.total)} per year` },
+          headings: t.headings.map((h) => ({ id: h.id, title: h.title })),
+          sequences: t.sequences.map((s) => ({ id: s.id, path: s.path, outcome: s.outcome, probability: formatProbability(s.probability) })),
+        },
+        width,
+      ),
+    ],
+  });
+  blocks.push(
+    table({
+      id: anchor('tab-tree-sequences', t.id),
+      number: ctx.nextTable(),
+      caption: `Sequences of ${t.id}: exact against a product of branch numbers (${perYear})`,
+      columns: [
+        col('Sequence', 'left', { width: 'auto' }),
+        col('Path', 'left', { code: true, width: 4 }),
+        col('Outcome', 'left', { code: true, width: 'auto' }),
+        col('Exact', 'right', { width: 'auto' }),
+        col('Product of branches', 'right', { width: 'auto' }),
+        col('Exact ÷ product', 'right', { width: 'auto' }),
+      ],
+      rows: t.sequences.map((s) => row([s.id, pathText(t, s.path), s.outcome, formatProbability(s.probability), formatProbability(s.product_of_branches), ratio(s.probability, s.product_of_branches)])),
+    }),
+    table({
+      id: anchor('tab-tree-by-range', t.id),
+      number: ctx.nextTable(),
+      caption: `Sequences of ${t.id} by load range (${perYear})`,
+      columns: [col('Sequence', 'left', { width: 'auto' }), col('Outcome', 'left', { code: true, width: 'auto' }), ...ranges.map((r) => col(r.id, 'right', { width: 'auto' }))],
+      rows: t.sequences.map((s) => row([s.id, s.outcome, ...s.by_range.map((x) => formatProbability(x))])),
+    }),
+    table({
+      id: anchor('tab-tree-outcomes', t.id),
+      number: ctx.nextTable(),
+      caption: `Outcomes of ${t.id} (${perYear})`,
+      columns: [
+        col('Outcome', 'left', { code: true, width: 'auto' }),
+        col('Description', 'left', { width: 3 }),
+        col('Exact', 'right', { width: 'auto' }),
+        ...ranges.map((r) => col(r.id, 'right', { width: 'auto' })),
+        col('Product of branches', 'right', { width: 'auto' }),
+      ],
+      rows: t.outcomes.map((o) => row([o.id, o.title, formatProbability(o.probability), ...o.by_range.map((x) => formatProbability(x)), formatProbability(o.product_of_branches)])),
+      note: `The outcomes add up to ${formatProbability(t.check.sum_of_outcomes)}, the total of the load ranges ${formatProbability(t.check.initiating)}: the sequences cover every combination of branches once.`,
+    }),
+  );
+  blocks.push(callout('caution', `Exact against a product of branch numbers: ${t.id}`, treeClosing(t)));
+  for (const f of modes.filter((x) => x.tree === t.id)) blocks.push(...modeBlocks(f, ctx));
+  return blocks;
+}
+
+function ratio(a: number, b: number): string {
+  if (b === 0) return a === 0 ? '—' : '∞';
+  return formatRatio(a / b);
+}
+
+function treeClosing(t: EventTreeResult): Part[] {
+  const parts: Part[] = [];
+  for (const o of t.outcomes) {
+    parts.push(strong(o.id), `: ${formatProbability(o.probability)} per year exactly, ${formatProbability(o.product_of_branches)} as a product of branch numbers`);
+    if (o.product_of_branches > 0 && o.probability > 0) {
+      const r = o.probability / o.product_of_branches;
+      if (formatRatio(r) === '1.00') parts.push(' (the same to three figures)');
+      else parts.push(r > 1 ? ` (the product understates it by a factor of ${formatRatio(r)})` : ` (the product overstates it by a factor of ${formatRatio(1 / r)})`);
+    }
+    parts.push('. ');
+  }
+  const far = [...t.sequences].filter((s) => s.probability > 0 && s.product_of_branches > 0).sort((a, b) => Math.abs(Math.log(b.probability / b.product_of_branches)) - Math.abs(Math.log(a.probability / a.product_of_branches)))[0];
+  if (far) {
+    parts.push(
+      'The largest difference is in sequence ',
+      strong(far.id),
+      ` (${pathText(t, far.path)}): ${formatProbability(far.probability)} exactly against ${formatProbability(far.product_of_branches)}, because its headings depend on the same basic events.`,
+    );
+  }
+  return parts;
+}
+
+function modeBlocks(f: FailureModeResult, ctx: BuildContext): Block[] {
+  const ranges = f.ranges;
+  return [
+    subheading(anchor('modes', f.id), `${f.id} — ${f.title}`),
+    para(
+      'The dam’s failure modes below share one load, the flood of ',
+      code(f.tree),
+      '. Following the practice discussed by R. Hill, D. Bowles, P. Jordan and R. Nathan, “Estimating overall risk of dam ',
+      'failure: practical considerations in combining failure probabilities” (ANCOLD 2003; cited from memory), they are ',
+      'combined within each load range, where every probability is conditional on the same flood, and only then weighted by ',
+      'the ranges’ annual probabilities. Shown: the plain sum (exact only if the modes exclude one another); the uni-modal ',
+      'bounds max P_i ≤ P ≤ 1 − Π(1 − P_i), the upper bound holding for modes that are independent or positively ',
+      'dependent given the load; and the common-cause adjustment, which takes the modes as independent given the load and ',
+      'shares each combination of modes occurring together equally among them, so that the adjusted modes add up to the ',
+      'upper bound: for two modes P_A·(1 − P_B/2). Not applied: any ordering of modes by which would occur first, and ',
+      'dependence between modes beyond the shared load.',
+    ),
+    table({
+      id: anchor('tab-modes', f.id),
+      number: ctx.nextTable(),
+      caption: `Failure modes of ${f.id}: probability given each load range, and per year`,
+      columns: [
+        col('Mode', 'left', { code: true, width: 'auto' }),
+        col('Description', 'left', { width: 3 }),
+        ...ranges.map((r) => col(r.id, 'right', { width: 'auto' })),
+        col('Per year', 'right', { width: 'auto' }),
+        col('Adjusted, per year', 'right', { width: 'auto' }),
+      ],
+      rows: [
+        ...f.modes.map((m) => row([m.id, m.title + (m.outcome ? ` (outcome ${m.outcome})` : ''), ...m.conditional.map((x) => formatProbability(x)), formatProbability(m.annual), formatProbability(m.adjusted_annual)])),
+        row(['sum', 'Plain sum of the modes', ...f.by_range.map((b) => formatProbability(b.sum)), formatProbability(f.annual.sum), '—']),
+        row(['lower', 'Uni-modal lower bound, max P_i', ...f.by_range.map((b) => formatProbability(b.lower)), formatProbability(f.annual.lower), '—']),
+        row(['upper', 'Uni-modal upper bound, 1 − Π(1 − P_i)', ...f.by_range.map((b) => formatProbability(b.upper)), formatProbability(f.annual.upper), formatProbability(f.modes.reduce((s, m) => s + m.adjusted_annual, 0))]),
+      ],
+      note: 'Range columns are conditional on the flood being in that range; per-year figures weight them by the ranges’ annual probabilities.',
+    }),
+    para(
+      strong('Overall annual probability of failure: '),
+      `between ${formatProbability(f.annual.lower)} and ${formatProbability(f.annual.upper)} (uni-modal bounds), `,
+      `against ${formatProbability(f.annual.sum)} for the plain sum.`,
+    ),
+  ];
+}
