@@ -214,12 +214,13 @@ function exponential(v: number, digits: number): string {
 }
 
 /**
- * True when v (below 100 000) is a whole number or has at most two decimals, to within the rounding
- * of the unit conversion (about 1e-11 at that size, far inside the 1e-8 allowed).
+ * True when v (below 100 000) is a whole number or has one decimal, to within the rounding of the
+ * unit conversion (about 1e-11 at that size, far inside the 1e-7 allowed). One decimal, not two, so
+ * half a month reads "2.174 weeks" rather than "365.25 h".
  */
 function isRound(v: number): boolean {
   if (!(Math.abs(v) < 1e5)) return false;
-  return Math.abs(v * 100 - Math.round(v * 100)) <= 1e-6;
+  return Math.abs(v * 10 - Math.round(v * 10)) <= 1e-7;
 }
 
 /**
@@ -234,9 +235,10 @@ export function formatDuration(years: number): string {
   const sign = years < 0 ? '-' : '';
   const y = Math.abs(years);
   const fitting = UNITS.filter((u) => y / u.def.years >= 1 - 1e-12);
-  const chosen = fitting.find((u) => isRound(y / u.def.years)) ?? fitting[0] ?? UNITS[UNITS.length - 1]!;
+  // A round amount counts only up to 1000 of a unit: 21915 min is round but no way to say half a month.
+  const chosen = fitting.find((u) => y / u.def.years <= 1000 + 1e-9 && isRound(y / u.def.years)) ?? fitting[0] ?? UNITS[UNITS.length - 1]!;
   const amount = y / chosen.def.years;
-  const text = isRound(amount) ? String(Math.round(amount * 100) / 100) : significant(amount, 4);
+  const text = isRound(amount) ? String(Math.round(amount * 10) / 10) : significant(amount, 4);
   const name = text === '1' ? chosen.singular : chosen.plural;
   return `${sign}${text} ${name}`;
 }

@@ -195,6 +195,7 @@ describe('formatDuration and formatRate', () => {
     [14 / 365.25, '2 weeks'],
     [30 / 365.25, '30 days'],
     [81.8843, '81.88 years'],
+    [1 / 24, '2.174 weeks'], // half a month: not round in any unit, so the largest unit ≥ 1
     [0, '0 years'],
   ])('%d years → %s', (years, text) => {
     expect(formatDuration(years)).toBe(text);
