@@ -11,7 +11,7 @@
 import { baseCase } from '../analysis/case.js';
 import { evaluateEvents } from '../analysis/event-probability.js';
 import { buildLogicModel } from '../analysis/logic-model.js';
-import { compileCase } from '../analysis/quantify.js';
+import { boundTops, compileBaseCase } from '../analysis/quantify.js';
 import type { Results } from '../analysis/results.js';
 import { probability } from '../logic/index.js';
 import { StudyError, StudyErrors } from '../study/errors.js';
@@ -61,13 +61,21 @@ export interface Attribution {
   consistent: boolean;
 }
 
-/** Exact top probabilities by top id, computed as the analysis's point estimate computes them. */
+/**
+ * Top probabilities by top id, computed as the analysis's point estimate computes them: exact from
+ * the decision diagram, or the cut-set bound when the diagram outgrew its budget and the study
+ * allows bounds (then only the bound is computed, as `analyze` does).
+ */
 export function pointTops(study: Study): Map<string, number> {
   const model = buildLogicModel(study);
   const base = baseCase();
   const p = evaluateEvents(study, base).probability;
-  const compiled = compileCase(study, model, base.switches);
+  const compiled = compileBaseCase(study, model, base.switches);
   const out = new Map<string, number>();
+  if (!compiled) {
+    for (const t of boundTops(study, model, base.switches, p)) out.set(t.id, t.probability.exact);
+    return out;
+  }
   study.tops.forEach((t, i) => out.set(t.id, probability(compiled.manager, compiled.gateRoots[model.topGates[i]!]!, p)));
   return out;
 }

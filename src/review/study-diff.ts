@@ -142,6 +142,23 @@ export interface Added<S> {
   side: S;
 }
 
+/**
+ * A change of a structure that does not enter the top events (count sets, event trees, failure-mode
+ * sets): which of its top-level fields differ; both sides as plain data without file positions.
+ */
+export interface StructureChange {
+  id: string;
+  aspects: string[];
+  old: Record<string, unknown>;
+  new: Record<string, unknown>;
+}
+
+export interface StructureDiff {
+  added: Added<Record<string, unknown>>[];
+  removed: Added<Record<string, unknown>>[];
+  changed: StructureChange[];
+}
+
 export interface StudyDiff {
   meta: MetaRow[];
   logic: {
@@ -149,6 +166,10 @@ export interface StudyDiff {
     gates: { added: Added<GateSide>[]; removed: Added<GateSide>[]; changed: GateChange[] };
     events: { added: Added<EventSide>[]; removed: Added<EventSide>[]; changed: EventChange[] };
     common_cause: { added: Added<GroupSide>[]; removed: Added<GroupSide>[]; changed: GroupChange[] };
+    /** logic.yaml `counts:`, `event_trees:` and `failure_modes:` (they feed their own results, not the tops). */
+    counts: StructureDiff;
+    event_trees: StructureDiff;
+    failure_modes: StructureDiff;
   };
   data: {
     parameters: { changed: ParameterChange[]; added: ParameterOnly[]; removed: ParameterOnly[] };
@@ -170,6 +191,9 @@ export function diffStudies(oldStudy: Study, newStudy: Study): StudyDiff {
       gates: diffById(oldStudy.gates, newStudy.gates, gateSide, gateChange),
       events: diffById(oldStudy.events, newStudy.events, eventSide, eventChange),
       common_cause: diffById(oldStudy.commonCause, newStudy.commonCause, groupSide, groupChange),
+      counts: diffStructures(oldStudy.counts ?? [], newStudy.counts ?? []),
+      event_trees: diffStructures(oldStudy.eventTrees ?? [], newStudy.eventTrees ?? []),
+      failure_modes: diffStructures(oldStudy.failureModes ?? [], newStudy.failureModes ?? []),
     },
     data: {
       parameters: diffParameters(oldStudy, newStudy),
@@ -197,7 +221,7 @@ export function changeCount(d: StudyDiff): number {
   const l = d.logic;
   const p = d.data.parameters;
   return (
-    [l.tops, l.gates, l.events, l.common_cause, d.data.sources, d.data.assumptions].reduce((n, x) => n + x.added.length + x.removed.length + x.changed.length, 0) +
+    [l.tops, l.gates, l.events, l.common_cause, l.counts, l.event_trees, l.failure_modes, d.data.sources, d.data.assumptions].reduce((n, x) => n + x.added.length + x.removed.length + x.changed.length, 0) +
     p.changed.length +
     p.added.length +
     p.removed.length +
@@ -426,6 +450,24 @@ function diffFiles(a: Study, b: Study): FileChange[] {
   }
   for (const f of a.files) if (!newPaths.has(f.path)) out.push({ path: f.path, status: 'removed', old_sha256: f.sha256 });
   return out;
+}
+
+function diffStructures<T extends { id: string }>(olds: T[], news: T[]): StructureDiff {
+  return diffById(olds, news, (x) => withoutPositions(x) as Record<string, unknown>, (id, a, b) => {
+    const aspects = [...new Set([...Object.keys(b), ...Object.keys(a)])].filter((k) => !same(a[k], b[k]));
+    return aspects.length ? { id, aspects, old: a, new: b } : null;
+  });
+}
+
+/** Plain data with every `at` (file position) removed: moving an entry in its file is no change. */
+function withoutPositions(x: unknown): unknown {
+  if (Array.isArray(x)) return x.map(withoutPositions);
+  if (x && typeof x === 'object') {
+    const out: Record<string, unknown> = {};
+    for (const [k, v] of Object.entries(x)) if (k !== 'at') out[k] = withoutPositions(v);
+    return out;
+  }
+  return x;
 }
 
 function sortedEntries(r: Record<string, string>): [string, string][] {

@@ -199,6 +199,40 @@ gates:
   });
 });
 
+describe('compare: structures beside the gates', () => {
+  it('lists an added count set, and an added common-cause group with its effect', () => {
+    const events = `classes:
+  hoist:
+    model: fixed
+    probability: { value: 1e-2, source: fen-notes }
+events:
+  motor-1: { title: Hoist 1, class: hoist }
+  motor-2: { title: Hoist 2, class: hoist }
+`;
+    const logic = `tops:\n  both:\n    title: Both hoists fail\n    gate: g\ngates:\n  g:\n    all: [motor-1, motor-2]\n`;
+    const extra = `common_cause:
+  hoists:
+    members: [motor-1, motor-2]
+    method: beta
+    beta: { value: 0.1, source: fen-notes }
+counts:
+  hoists-failing:
+    title: Hoists that fail
+    of: [motor-1, motor-2]
+`;
+    const { comparison: c } = compareStudies(readStudy(writeStudy({ events, logic })), readStudy(writeStudy({ revision: 'B', events, logic: logic + extra })));
+    expect(c.changes.logic.counts.added.map((x) => x.id)).toEqual(['hoists-failing']);
+    expect(c.changes.logic.common_cause.added.map((x) => x.id)).toEqual(['hoists']);
+    const e = c.attribution.effects.find((x) => x.id === 'common-cause:hoists')!;
+    // Beta-factor model (NUREG/CR-5485): independent part (1 − β)Q each, common part βQ:
+    // P(both) = βQ + (1 − βQ)·((1 − β)Q)².
+    const [q, b] = [1e-2, 0.1];
+    expectClose(e.tops[0]!.base, q * q);
+    expectClose(e.tops[0]!.value, b * q + (1 - b * q) * ((1 - b) * q) ** 2, 1e-9);
+    expect(c.attribution.reproduces_new).toBe(true);
+  });
+});
+
 describe('compare: data details', () => {
   it('tells a change of source from a change of value, and a change of unit', () => {
     const events = BASE_EVENTS.replace(`value: ${P.motor}, source: fen-notes, note: "page 1"`, `value: ${P.motor}, source: fen-survey, note: "page 1"`);

@@ -8,7 +8,7 @@
  */
 import type { Results } from '../../analysis/results.js';
 import { callout, code, col, keyValues, listWords, para, row, strong, subheading, table, type Part } from '../../report/blocks.js';
-import { formatCount, formatProbability, formatQuantity, formatRatio, formatShare } from '../../report/format.js';
+import { formatCount, formatNumber, formatProbability, formatQuantity, formatRatio, formatShare } from '../../report/format.js';
 import type { Appendix, Block, Paper, Section, TableRow } from '../../report/view.js';
 import type { Comparison } from '../compare.js';
 import { gateChangeText, gateLogic, parameterValue, uncertaintyText } from '../describe.js';
@@ -122,11 +122,11 @@ function summary(c: Comparison, ctx: Counter): Section {
   } else {
     const l = c.changes.logic;
     const p = c.changes.data.parameters;
-    const logicCount = [l.tops, l.gates, l.events, l.common_cause].reduce((n, x) => n + x.added.length + x.removed.length + x.changed.length, 0);
+    const logicCount = Object.values(l).reduce((n, x) => n + x.added.length + x.removed.length + x.changed.length, 0);
     const valueChanges = p.changed.filter((x) => x.aspects.includes('value')).length;
     blocks.push(
       para(
-        `${formatCount(c.change_count)} change${c.change_count === 1 ? '' : 's'} of inputs: ${formatCount(logicCount)} in the logic (tops, gates, basic events, common-cause groups), `,
+        `${formatCount(c.change_count)} change${c.change_count === 1 ? '' : 's'} of inputs: ${formatCount(logicCount)} in the logic (tops, gates, basic events, common-cause groups, counts, event trees, failure modes), `,
         `${formatCount(p.changed.length)} changed parameter${p.changed.length === 1 ? '' : 's'} (${formatCount(valueChanges)} of them in value), `,
         `${formatCount(p.added.length)} added and ${formatCount(p.removed.length)} removed, and the rest in sources, assumptions, settings, scenarios and the snapshot date.`,
       ),
@@ -231,6 +231,17 @@ function logicChanges(c: Comparison, ctx: Counter): Section {
   for (const g of l.common_cause.added) add(g.id, 'common-cause group', 'ADDED', '—', `${g.side.method}: ${g.side.members.join(', ')}`);
   for (const g of l.common_cause.removed) add(g.id, 'common-cause group', 'REMOVED', `${g.side.method}: ${g.side.members.join(', ')}`, '—');
   for (const g of l.common_cause.changed) add(g.id, 'common-cause group', `CHANGED: ${g.aspects.join(', ')}`, `${g.old.method}: ${g.old.members.join(', ')}`, `${g.new.method}: ${g.new.members.join(', ')}`);
+  const structures: [string, typeof l.counts][] = [
+    ['count set', l.counts],
+    ['event tree', l.event_trees],
+    ['failure-mode set', l.failure_modes],
+  ];
+  const titled = (x: Record<string, unknown>) => (typeof x.title === 'string' ? x.title : '');
+  for (const [kind, d] of structures) {
+    for (const x of d.added) add(x.id, kind, 'ADDED', '—', titled(x.side));
+    for (const x of d.removed) add(x.id, kind, 'REMOVED', titled(x.side), '—');
+    for (const x of d.changed) add(x.id, kind, `CHANGED: ${x.aspects.join(', ')}`, titled(x.old), titled(x.new));
+  }
   return {
     id: 'sec-cmp-logic',
     number: ctx.number,
@@ -528,8 +539,9 @@ function files(c: Comparison, ctx: Counter, input: ViewInput): Section {
 function relativeChange(base: number, value: number): string {
   if (value === base) return 'none';
   if (base === 0) return 'from 0';
-  const r = (value - base) / base;
-  return `${r < 0 ? '−' : '+'}${formatShare(Math.abs(r))}`;
+  const r = Math.abs((value - base) / base);
+  // Below 0.001 % the share format would say "<0.001%"; a small effect still deserves its size.
+  return `${value < base ? '−' : '+'}${r < 1e-5 ? `${formatNumber(r * 100)}%` : formatShare(r)}`;
 }
 
 /** A SHA-256 in groups of 16 hex digits, so a table cell can wrap it. */
