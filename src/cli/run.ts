@@ -6,16 +6,15 @@ import { basename, resolve } from 'node:path';
 import { analyze } from '../analysis/analyze.js';
 import { StudyError } from '../study/errors.js';
 import { readStudy } from '../study/read.js';
-import { cutSetsCsv } from '../report/cutsets-csv.js';
+import { OUTPUT_FORMATS, renderOutputs, type OutputFormat } from '../report/outputs.js';
 import { helpText, parseCommandArgs, type CommandSpec } from './args.js';
 import { EXIT, type Command } from './io.js';
 import { writeOutputs, type OutputFile } from './outputs.js';
 import { formatProbability, printWarnings } from './print.js';
 import { createProgress } from './progress.js';
-import { resultsJson } from '../report/results-json.js';
 
-const FORMATS = ['html', 'pdf', 'json', 'csv'] as const;
-type Format = (typeof FORMATS)[number];
+const FORMATS = OUTPUT_FORMATS;
+type Format = OutputFormat;
 
 const spec: CommandSpec = {
   usage: 'STUDY [--out DIR] [--format html,pdf,json,csv] [--paper a4|letter] [--quiet]',
@@ -71,16 +70,8 @@ const run: Command = async (argv, io) => {
   const seen = new Set(study.warnings.map((w) => `${w.code}\u0000${w.message}`));
   for (const w of results.warnings) if (!seen.has(`${w.code}\u0000${w.message}`)) io.stderr(`warning: ${w.message} [${w.code}]\n`);
 
-  const files: OutputFile[] = [];
-  if (formats.has('json')) files.push({ name: 'results.json', data: resultsJson(results) });
-  if (formats.has('csv')) files.push({ name: 'cutsets.csv', data: cutSetsCsv(results) });
-  if (formats.has('html') || formats.has('pdf')) {
-    // The report stage is loaded only when asked for: json/csv runs need none of its libraries.
-    const report = await import('../report/index.js');
-    const view = report.buildViewModel(results, study.files, { paper });
-    if (formats.has('html')) files.push({ name: 'appendix.html', data: report.renderHtml(view) });
-    if (formats.has('pdf')) files.push({ name: 'appendix.pdf', data: await report.renderPdf(view) });
-  }
+  const made = await renderOutputs(results, study.files, { paper, formats });
+  const files: OutputFile[] = [...made].map(([name, data]) => ({ name, data }));
   const written = writeOutputs(outDir, files);
   if (!quiet) {
     for (const top of results.tops) {

@@ -19,7 +19,7 @@ import { confine, sha256 } from '../study/read.js';
 import type { InputFile, Study } from '../study/types.js';
 import { gzipDeterministic } from './gzip.js';
 import { buildManifest, manifestJson, MANIFEST_NAME, type FileRole, type Manifest } from './manifest.js';
-import { makeOutputs } from './study-outputs.js';
+import { OUTPUT_FORMATS, renderOutputs } from '../report/outputs.js';
 import { writeTar } from './tar.js';
 
 export const ARCHIVE_ROOT = 'faultbook-archive';
@@ -42,7 +42,7 @@ export async function buildArchive(study: Study, options: ArchiveOptions = {}): 
   const paper = options.paper ?? 'a4';
   const appendix = options.appendix ?? (await reportAvailable());
   const results = analyze(study);
-  const outputs = await makeOutputs(results, study.files, { paper, appendix });
+  const outputs = { files: await renderOutputs(results, study.files, { paper, formats: new Set(appendix ? OUTPUT_FORMATS : (['json', 'csv'] as const)) }) };
   const files: { path: string; role: FileRole; data: Buffer }[] = [];
   for (const f of study.files) files.push({ path: `${INPUTS_DIR}/${f.path}`, role: 'input', data: inputBytes(study, f) });
   for (const [name, data] of outputs.files) files.push({ path: `${OUTPUTS_DIR}/${name}`, role: 'output', data });
