@@ -319,6 +319,8 @@ function tableContent(block: TableBlock): Content {
   const table: Content = {
     table: {
       headerRows: 1,
+      // Never leave a header row alone at the foot of a page.
+      keepWithHeaderRows: 1,
       dontBreakRows: true,
       widths: block.columns.map((c) => (c.width === undefined || c.width === 'auto' ? 'auto' : '*')),
       body,
