@@ -7,7 +7,9 @@
  *  - events that read no varying parameter are computed once;
  *  - events with the same model, the same parameter sources, the same age and state (the gates'
  *    identical components of one class) are computed once per trial and the value shared.
- * The test suite holds it equal to `evaluateEvents` value for value.
+ * It gives each study event's own probability (`EventEvaluation.total`); the common-cause
+ * expansion to the logic model's variables is applied after it, as in `evaluateEvents`. The test
+ * suite holds it equal to `evaluateEvents` value for value.
  */
 import { modelProbability, type ModelContext } from '../reliability/models/index.js';
 import type { ModelKind, Study } from '../study/types.js';
@@ -103,7 +105,7 @@ export class EventPlan {
   }
 
   /**
-   * Event probabilities (study order) for one vector of parameter values (indexed like
+   * Each study event's own probability (study order, before any common-cause expansion) for one vector of parameter values (indexed like
    * study.parameters; only the varying entries are read), written into `out`.
    */
   evaluate(values: ArrayLike<number>, out: Float64Array): Float64Array {

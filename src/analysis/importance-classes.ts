@@ -10,6 +10,10 @@
  *   Fussell–Vesely  FV  = (P − P0)/P   (the fraction of P that would go if the class never failed)
  *   RAW             = P1/P,   RRW = P/P0
  * For a single event these are the measures of `logic/importance.ts` (the tests check that).
+ * With a common-cause group (common-cause.ts) a member's variable is only its independent part;
+ * the class also holds every shared common-cause event whose members all belong to it (the four
+ * motors' shared failure is a motor failure), so "all working" leaves no way for the class to fail.
+ * A shared event that spans two classes belongs to neither.
  * P1 and P0 are exact conditional probabilities on the decision diagram: P is multilinear in the
  * event probabilities, so setting the class's probabilities to 1 (or 0) in one pass is conditioning
  * on them. FV is formed as a difference, so its absolute rounding error is about 1e-16 —
@@ -18,6 +22,7 @@
  */
 import { ProbabilityEvaluator } from '../logic/index.js';
 import type { Study } from '../study/types.js';
+import { commonCauseOf } from './common-cause.js';
 import type { ClassImportance } from './results.js';
 
 /** Class id → indices of its basic events, in study order of first appearance. Switches are not components. */
@@ -32,6 +37,16 @@ export function classMembers(study: Study): Map<string, number[]> {
   return members;
 }
 
+/** The logic-model variables a class pins: its events, and the shared common-cause events all of whose members are in it. */
+function classVariables(study: Study, events: number[]): number[] {
+  const inClass = new Set(events);
+  const shared: number[] = [];
+  for (const layout of commonCauseOf(study).groups) {
+    for (const s of layout.shared) if (s.members.every((m) => inClass.has(m))) shared.push(s.variable);
+  }
+  return [...events, ...shared];
+}
+
 /**
  * Class importance for every top (outer array in study order of tops), ranked by FV (ties in
  * class order). Classes that cannot change a top (P1 = P0) are left out of its list.
@@ -42,11 +57,12 @@ export function classImportance(study: Study, evaluator: ProbabilityEvaluator, p
   const perTop: ClassImportance[][] = study.tops.map(() => []);
   const pinned = Float64Array.from(p);
   for (const [cls, events] of members) {
-    for (const i of events) pinned[i] = 1;
+    const vars = classVariables(study, events);
+    for (const i of vars) pinned[i] = 1;
     const p1 = evaluator.evaluate(pinned);
-    for (const i of events) pinned[i] = 0;
+    for (const i of vars) pinned[i] = 0;
     const p0 = evaluator.evaluate(pinned);
-    for (const i of events) pinned[i] = p[i]!;
+    for (const i of vars) pinned[i] = p[i]!;
     study.tops.forEach((_, t) => {
       const base = P[t]!;
       const one = p1[t]!;

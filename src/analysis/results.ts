@@ -128,6 +128,8 @@ export interface SensitivityResult {
    * probabilities capped at 1): tornado data, sorted by |swing|, swing = high − low (top probabilities).
    */
   tornado: { key: string; low_value: number; high_value: number; low: number; high: number; base: number; swing: number }[];
+  /** Parameters left out because an end of their range fell outside the parameter's domain, and why. */
+  skipped: { key: string; reason: string }[];
   /**
    * Top probability against the exercise interval applied to every `exercise` field at once. The
    * base case comes first (`base: true`, `years` only when every exercise field has one value).

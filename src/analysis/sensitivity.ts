@@ -5,9 +5,13 @@
  *    at 1), all others at their values: the data of a tornado chart, sorted by swing;
  *  - the exercise interval: every `exercise` field of the study set together to weekly, monthly,
  *    quarterly and yearly, beside the base case.
- * Each point is a case (parameter overrides) quantified on the base diagram.
+ * Each point is a case (parameter overrides) quantified on the base diagram. An end that falls
+ * outside the parameter's domain (the study reader's own rule, `checkDomain`: a shape of zero, a
+ * value × factor that overflows) is not evaluated; the parameter is listed as skipped, with why.
  */
 import { DAYS_PER_YEAR } from '../reliability/units.js';
+import { StudyError } from '../study/errors.js';
+import { checkDomain } from '../study/quantities.js';
 import type { Parameter, Study } from '../study/types.js';
 import { baseCase, type Case } from './case.js';
 import type { CaseQuantifier } from './case-quantifier.js';
@@ -41,7 +45,22 @@ export function sensitivity(study: Study, quantifier: CaseQuantifier, base: Floa
   const read = parametersRead(study);
   const params = study.parameters.filter((p) => read.has(p.key));
   const factor = study.settings.sensitivity_factor;
-  const points = params.map((p) => {
+  const skipped: { key: string; reason: string }[] = [];
+  const inDomain = (p: Parameter, v: number): boolean => {
+    try {
+      checkDomain(p.field, p.quantity, v, p.at, `'${p.key}'`);
+      return true;
+    } catch (err) {
+      if (!(err instanceof StudyError)) throw err;
+      skipped.push({ key: p.key, reason: `${p.value} ÷/× ${factor} gives ${v}, outside its domain (${err.hint ?? 'see the study reader'})` });
+      return false;
+    }
+  };
+  const evaluable = params.filter((p) => {
+    const [low, high] = sensitivityBounds(p, factor);
+    return inDomain(p, low) && inDomain(p, high);
+  });
+  const points = evaluable.map((p) => {
     const [lowValue, highValue] = sensitivityBounds(p, factor);
     return {
       key: p.key,
@@ -79,6 +98,7 @@ export function sensitivity(study: Study, quantifier: CaseQuantifier, base: Floa
     return {
       top: top.id,
       tornado,
+      skipped,
       exercise_curve: curve.map((x) => ({
         label: x.label,
         ...(x.years !== undefined ? { years: x.years } : {}),

@@ -7,19 +7,18 @@
 import { NodeBudgetExceeded } from '../logic/index.js';
 import { StudyError } from '../study/errors.js';
 import type { Study } from '../study/types.js';
-import type { Stage } from './analyze.js';
+import type { AnalysisContext, Stage } from './analyze.js';
 import { commonCauseAdjustment, uniModalBounds } from './combine-modes.js';
 import { studyValues } from './event-probability.js';
 import { quantifyTree } from './event-trees.js';
 import { gateCount } from './gate-counts.js';
 import type { CommonCauseResult, EventResult, EventTreeResult, FailureModeResult, Results } from './results.js';
-import type { AnalysisContext } from './analyze.js';
 
 /** The rule for members with unequal totals, as the appendix states it (see common-cause.ts). */
 export const UNEQUAL_RULE =
-  'Each member keeps its own total Q_t for its independent part (f1 · Q_t); every shared event uses the mean Q_t of the group\u2019s members. ' +
-  'NUREG/CR-5485\u2019s formulas assume like members; with this rule the expected number of member failures (the sum over members of independent plus shared parts) equals the sum of the members\u2019 own totals, ' +
-  'while each member\u2019s own total moves towards the group mean.';
+  'NUREG/CR-5485\u2019s formulas are written for like members. Rule applied: each member keeps its own Q_t for its independent part (f1 \u00b7 Q_t), and every shared event uses the mean Q_t of the members. ' +
+  'With this rule the expected number of member failures (over the members, independent plus shared parts) equals the sum of the members\u2019 own Q_t, ' +
+  'while each member\u2019s own total moves towards the mean.';
 
 /** Members whose totals differ by more than this (relative) are reported as unequal. */
 const UNEQUAL = 1e-9;

@@ -52,13 +52,14 @@ export function monteCarlo(study: Study, quantifier: CaseQuantifier, options: Un
   const expansion = commonCauseOf(study);
   const parameterIndex = new Map(study.parameters.map((p, i) => [p.key, i]));
   const variableProbability = new Float64Array(expansion.variableCount);
+  const valueOf = (key: string): number => parameterValues[parameterIndex.get(key)!]!;
   const values = study.tops.map(() => new Float64Array(samples));
   const label = method === 'latin-hypercube' ? 'Latin hypercube' : 'Monte Carlo';
   for (let t = 0; t < samples; t++) {
     rows.row(t, uniforms);
     sampler.apply(uniforms, parameterValues, t);
     plan.evaluate(parameterValues, eventProbability);
-    expansion.apply(eventProbability, (key) => parameterValues[parameterIndex.get(key)!]!, variableProbability);
+    expansion.apply(eventProbability, valueOf, variableProbability);
     const tops = evaluator.evaluate(variableProbability);
     for (let k = 0; k < tops.length; k++) values[k]![t] = tops[k]!;
     if (options.progress && (t + 1) % PROGRESS_EVERY === 0) options.progress(label, t + 1, samples);

@@ -87,7 +87,10 @@ export function readSharedCauseSections(parts: TreeParts): SharedCauseSections {
   }
   const failureModes: FailureModeSet[] = [];
   const trees = new Map(eventTrees.map((t) => [t.id, t]));
+  // A tree that was written but refused is already reported; its mode sets are not checked against it.
+  const refused = new Set(entriesOf(parts.sections, 'event_trees').map((e) => e.id).filter((id) => !trees.has(id)));
   for (const { id, raw, file } of entriesOf(parts.sections, 'failure_modes')) {
+    if (refused.has(String(raw.load))) continue;
     const f = attempt(() => readModes(id, raw, file, trees, parts));
     if (f) failureModes.push(f);
   }

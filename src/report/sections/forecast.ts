@@ -44,7 +44,14 @@ export const forecast: SectionRule = (results, ctx) => {
     }
     for (const f of scenarios) {
       const e = at(f, f.years.length - 1);
-      if (e !== undefined && end !== undefined) words.push('With ', code(f.scenario!), ` it is ${formatProbability(e)} in ${last.date.slice(0, 4)}. `);
+      if (e === undefined || end === undefined) continue;
+      const same = formatProbability(e) === formatProbability(end);
+      words.push(
+        'With ',
+        code(f.scenario!),
+        ` it is ${formatProbability(e)} in ${last.date.slice(0, 4)}`,
+        same ? ', the same as the base case to three figures: the plan hardly changes this top event. ' : '. ',
+      );
     }
     blocks.push(subheading(anchor('forecast', top.id), `${top.id} — ${top.title}`), para(...words));
     const figure = ctx.nextFigure();

@@ -102,6 +102,15 @@ function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext): B
   } else if (s.tornado.length > 0) {
     blocks.push(para(`None of the ${formatCount(s.tornado.length)} parameters moves this top event.`));
   }
+  if (s.skipped.length > 0) {
+    blocks.push(
+      para(
+        `Not varied, because an end of the factor rule falls outside what the parameter can be: `,
+        s.skipped.map((x) => `${x.key} — ${x.reason}`).join('; '),
+        '. State a range for these parameters to include them.',
+      ),
+    );
+  }
   if (s.exercise_curve.length > 0) blocks.push(...exerciseBlocks(results, s, ctx, width));
   return blocks;
 }

@@ -23,8 +23,11 @@ export const uncertainty: SectionRule = (results, ctx) => {
       `with the study’s seed ${String(u0.seed)}: the same study and seed give the same numbers. In each trial every parameter `,
       'that states an uncertainty distribution is drawn once, so all the events of one component class share their ',
       'class’s draw — the state-of-knowledge correlation of like components, without which the spread of a redundant system ',
-      'would be understated. A Weibull shape and scale fitted from life records are drawn together from the fit’s ',
-      `covariance. The ${formatCount(u0.sampled_parameters.length)} sampled parameters are `,
+      'would be understated. ',
+      u0.sampled_parameters.some((k) => ctx.parametersByKey.get(k)?.uncertainty?.['kind'] === 'fit')
+        ? 'A Weibull shape and scale fitted from life records are drawn together, from the normal law of their logarithms with the fit’s covariance. '
+        : '',
+      `The ${formatCount(u0.sampled_parameters.length)} sampled parameters are `,
       ...joinCodes(u0.sampled_parameters),
       '.',
     ),
