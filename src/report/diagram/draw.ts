@@ -101,6 +101,12 @@ function drawPlaced(input: DrawInput, edges: D3Selection, nodes: D3Selection, p:
         .attr('fill', '#ffffff')
         .attr('stroke', INK)
         .attr('stroke-width', STROKE);
+    if (!node.house && node.commonCause) {
+      // Marked by letters, not colour: readable in black and white.
+      g.attr('data-common-cause', node.commonCause);
+      text(g, p.x, symbolTop + 13.5, 'CCF', 6.5, { weight: 'medium' });
+      text(g, p.x, symbolTop + 22 + 9, `group ${node.commonCause}`, 6.5, { italic: true });
+    }
     return;
   }
   // A gate: its symbol, then the bus to its inputs.

@@ -31,6 +31,14 @@ export function drawLegend(caption: string, width: number): FigurePart {
         g.append('circle').attr('cx', round(cx)).attr('cy', round(t + 11)).attr('r', 11).attr('fill', '#ffffff').attr('stroke', INK).attr('stroke-width', 0.8);
       },
     },
+    {
+      name: 'Common-cause member',
+      note: 'its group adds shared failures (P is its own total)',
+      draw: (g, cx, t) => {
+        g.append('circle').attr('cx', round(cx)).attr('cy', round(t + 11)).attr('r', 11).attr('fill', '#ffffff').attr('stroke', INK).attr('stroke-width', 0.8);
+        text(g, cx, t + 13.5, 'CCF', 6.5, { weight: 'medium' });
+      },
+    },
     { name: 'House event', note: 'a condition set on or off (a switch)', draw: (g, cx, t) => path(g, housePath(cx, t, 21, 20), '#ffffff') },
     {
       name: 'Transfer',

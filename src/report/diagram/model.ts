@@ -25,6 +25,8 @@ export interface DiagramEvent {
   house: boolean;
   on?: boolean;
   probability?: number;
+  /** Member of this common-cause group: drawn with a mark, its probability its own total. */
+  commonCause?: string;
 }
 
 /** An id the logic refers to that neither the gates nor the events define (drawn, not hidden). */
@@ -68,7 +70,10 @@ export function diagramModel(results: Results): DiagramModel {
       title: e.title,
       house: e.model === 'switch',
       ...(e.on !== undefined ? { on: e.on } : {}),
-      probability: e.probability,
+      // A common-cause member stands in the logic for its independent part; the diagram prints
+      // the component's own total, and the mark says the group adds shared events to it.
+      probability: e.common_cause_role === 'independent' && e.total_probability !== undefined ? e.total_probability : e.probability,
+      ...(e.common_cause_role === 'independent' && e.common_cause_group ? { commonCause: e.common_cause_group } : {}),
     });
   }
   for (const g of results.logic.gates) {
