@@ -35,7 +35,7 @@
  * canonical, f is monotone exactly when f⁺ is the same node, which is how `coherent` is decided.
  * The exact top probability is not affected: it comes from the diagram of f itself.
  */
-import { TRUE, type BddManager } from './bdd.js';
+import { HIGH, LOW, NODE_STRIDE, TRUE, type BddManager } from './bdd.js';
 
 export interface CutSet {
   /** Variable indices, ascending. */
@@ -119,8 +119,8 @@ class CompensatedSum {
   }
 }
 
-/** Bound rows kept per node: k = 0..TABLE_ORDERS−1 exactly, beyond that the unlimited bound. */
-const TABLE_ORDERS = 13;
+/** Most bound rows kept per node: k = 0..MAX_ROWS−1 exactly; beyond that the unlimited bound. */
+const MAX_ROWS = 13;
 
 export function minimalCutSets(
   m: BddManager,
@@ -133,7 +133,7 @@ export function minimalCutSets(
   if (!(cutoff >= 0)) throw new RangeError('cutoff must be ≥ 0');
   if (!(maxOrder >= 0)) throw new RangeError('maxOrder must be ≥ 0');
   const g = options.monotone ? root : monotoneRelaxation(m, root);
-  const tables = new SearchTables(m, g, p);
+  const tables = new SearchTables(m, g, p, Math.min(MAX_ROWS, Math.min(maxOrder, m.varCount) + 1));
   const search = new CutSetSearch(m, tables, p, Math.min(maxOrder, m.varCount), cutoff);
   const counter = new CutSetSearch(m, tables, p, Infinity, 0);
   const kept: CutSet[] = [];
@@ -207,12 +207,28 @@ interface Branch {
   prob: number;
 }
 
-/** A branch the bounds cut off, handed to the caller without copying unless asked. */
+/** A branch the bounds cut off, handed to the caller without copying unless asked (valid during the callback only). */
 interface PrunedBranch {
   /** A standalone copy, to search it again. */
   materialise(): Branch;
   /** True when it certainly holds a minimal cut set (no open constraint left). */
   certainlyHoldsMinimalSet(): boolean;
+}
+
+/** The reusable PrunedBranch handed out by a search; valid only inside the callback. */
+class PrunedView implements PrunedBranch {
+  node = 0;
+  head = -1;
+  extraVar = -1;
+  count = 0;
+  prob = 0;
+  constructor(private readonly search: CutSetSearch) {}
+  materialise(): Branch {
+    return this.search.materialiseBranch(this);
+  }
+  certainlyHoldsMinimalSet(): boolean {
+    return this.search.branchCertainlyHoldsMinimalSet(this);
+  }
 }
 
 /** Per-node tables of one monotone diagram, shared by the searches over it. */
@@ -223,16 +239,19 @@ class SearchTables {
   readonly zeroValue: Int32Array;
   /** Fewest high edges on a path to true. */
   readonly minOnes: Int32Array;
+  /** Rows of `bound`, K. */
+  readonly rows: number;
   /** bound[slot·K + k]: best probability of a path to true with at most k high edges (k < K). */
   readonly bound: Float64Array;
   /** Best probability of any path to true. */
   readonly boundAny: Float64Array;
 
-  constructor(m: BddManager, root: number, p: ArrayLike<number>) {
-    const { level, low, high, order } = m.arrays();
+  constructor(m: BddManager, root: number, p: ArrayLike<number>, rows: number) {
+    const { nodes: nd, order } = m.arrays();
     const nodes = m.topological([root]);
     const n = nodes.length;
-    const K = TABLE_ORDERS;
+    const K = rows;
+    this.rows = K;
     this.slotOf = new Int32Array(m.idLimit);
     this.slotOf[T] = 1;
     this.zeroValue = new Int32Array(n + 2);
@@ -248,9 +267,10 @@ class SearchTables {
       const node = nodes[i]!;
       const s = i + 2;
       this.slotOf[node] = s;
-      const ls = this.slotOf[low[node]!]!;
-      const hs = this.slotOf[high[node]!]!;
-      const pv = p[order[level[node]!]!]!;
+      const o = node * NODE_STRIDE;
+      const ls = this.slotOf[nd[o + LOW]!]!;
+      const hs = this.slotOf[nd[o + HIGH]!]!;
+      const pv = p[order[nd[o]!]!]!;
       this.zeroValue[s] = this.zeroValue[ls]!;
       this.minOnes[s] = Math.min(this.minOnes[ls]!, this.minOnes[hs]! + 1);
       this.boundAny[s] = Math.max(this.boundAny[ls]!, pv * this.boundAny[hs]!);
@@ -267,9 +287,8 @@ class SearchTables {
  * loop allocates nothing but the arrays of the sets it reports.
  */
 class CutSetSearch {
-  private readonly level: Int32Array;
-  private readonly low: Int32Array;
-  private readonly high: Int32Array;
+  /** The node table (see BddArrays): level, low, high at offsets 0, LOW, HIGH of node·NODE_STRIDE. */
+  private readonly nd: Int32Array;
   private readonly order: Int32Array;
   private readonly terminalLevel: number;
   private readonly slack: number;
@@ -287,6 +306,8 @@ class CutSetSearch {
   private kid = new Int32Array(16);
   /** Scratch for checks made from a pruned-branch callback, which must not touch `cons`. */
   private spare = new Int32Array(16);
+  /** One view object for every pruned branch, valid only during the callback (no allocation). */
+  private readonly view = new PrunedView(this);
 
   constructor(
     m: BddManager,
@@ -296,9 +317,7 @@ class CutSetSearch {
     cutoff: number,
   ) {
     const a = m.arrays();
-    this.level = a.level;
-    this.low = a.low;
-    this.high = a.high;
+    this.nd = a.nodes;
     this.order = a.order;
     this.terminalLevel = m.varCount;
     this.slack = cutoff * (1 - 1e-12);
@@ -306,8 +325,9 @@ class CutSetSearch {
 
   /** Best probability of a path to true from `node` with at most k high edges (an upper bound). */
   private best(node: number, k: number): number {
-    const s = this.t.slotOf[node]!;
-    return k < TABLE_ORDERS ? this.t.bound[s * TABLE_ORDERS + k]! : this.t.boundAny[s]!;
+    const t = this.t;
+    const s = t.slotOf[node]!;
+    return k < t.rows ? t.bound[s * t.rows + k]! : t.boundAny[s]!;
   }
 
   /**
@@ -317,12 +337,13 @@ class CutSetSearch {
    * it true).
    */
   private normalise(node: number, src: Int32Array, from: number, count: number, out: Int32Array): number {
-    const L = this.level[node]!;
+    const nd = this.nd;
+    const L = nd[node * NODE_STRIDE]!;
     let n = 0;
     for (let i = 0; i < count; i++) {
       let c = src[from + i]!;
       if (L === this.terminalLevel) c = this.t.zeroValue[this.t.slotOf[c]!]!;
-      else while (this.level[c]! < L) c = this.low[c]!;
+      else while (nd[c * NODE_STRIDE]! < L) c = nd[c * NODE_STRIDE + LOW]!;
       if (c === F) continue;
       if (c === T || c === node) return -1;
       let dup = false;
@@ -361,8 +382,10 @@ class CutSetSearch {
     this.rec[o + 3] = this.arenaTop;
     this.rec[o + 4] = count;
     this.rec[o + 5] = this.cellTop;
-    this.arena.set(cons.subarray(0, count), this.arenaTop);
-    this.arenaTop += count;
+    const arena = this.arena;
+    let top = this.arenaTop;
+    for (let i = 0; i < count; i++) arena[top++] = cons[i]!;
+    this.arenaTop = top;
     this.recProb[this.sp] = prob;
     this.sp++;
   }
@@ -387,20 +410,25 @@ class CutSetSearch {
     return out.sort((x, y) => x - y);
   }
 
-  private pruned(
-    onPruned: (b: PrunedBranch) => void,
-    node: number,
-    head: number,
-    extraVar: number,
-    count: number,
-    prob: number,
-  ): void {
-    const kid = this.kid;
-    const self = this;
-    onPruned({
-      materialise: () => ({ node, vars: self.varsOf(head, extraVar), constraints: Array.from(kid.subarray(0, count)), prob }),
-      certainlyHoldsMinimalSet: () => node !== F && self.normalise(node, kid, 0, count, self.cons) === 0,
-    });
+  /** Fills the reusable view of a pruned branch (its constraints are in `kid`) and reports it. */
+  private pruned(onPruned: (b: PrunedBranch) => void, node: number, head: number, extraVar: number, count: number, prob: number): void {
+    const view = this.view;
+    view.node = node;
+    view.head = head;
+    view.extraVar = extraVar;
+    view.count = count;
+    view.prob = prob;
+    onPruned(view);
+  }
+
+  /** For PrunedView: the branch as standalone data. */
+  materialiseBranch(v: PrunedView): Branch {
+    return { node: v.node, vars: this.varsOf(v.head, v.extraVar), constraints: Array.from(this.kid.subarray(0, v.count)), prob: v.prob };
+  }
+
+  /** For PrunedView: no open constraint after normalising, and a way to true. */
+  branchCertainlyHoldsMinimalSet(v: PrunedView): boolean {
+    return v.node !== F && this.normalise(v.node, this.kid, 0, v.count, this.spare) === 0;
   }
 
   /**
@@ -422,9 +450,7 @@ class CutSetSearch {
     this.ensureConstraintRoom(start.constraints.length + 1);
     this.kid.set(start.constraints);
     this.push(start.node, start.vars.length, head0, this.kid, start.constraints.length, start.prob);
-    const level = this.level;
-    const low = this.low;
-    const high = this.high;
+    const nd = this.nd;
     const minOnes = this.t.minOnes;
     const slotOf = this.t.slotOf;
     const maxOrder = this.maxOrder;
@@ -454,17 +480,18 @@ class CutSetSearch {
         found(this.varsOf(head));
         continue;
       }
-      const L = level[node]!;
+      const on = node * NODE_STRIDE;
+      const L = nd[on]!;
       const v = this.order[L]!;
       const pv = this.p[v]!;
-      const hi = high[node]!;
-      const lo = low[node]!;
+      const hi = nd[on + HIGH]!;
+      const lo = nd[on + LOW]!;
 
       // High edge: v joins the set; the low child becomes a constraint.
       let k = 0;
       for (let i = 0; i < nc; i++) {
         const c = cons[i]!;
-        kid[k++] = level[c] === L ? high[c]! : c;
+        kid[k++] = nd[c * NODE_STRIDE] === L ? nd[c * NODE_STRIDE + HIGH]! : c;
       }
       if (lo !== F) kid[k++] = lo;
       const hiProb = prob * pv;
@@ -479,7 +506,7 @@ class CutSetSearch {
       k = 0;
       for (let i = 0; i < nc; i++) {
         const c = cons[i]!;
-        kid[k++] = level[c] === L ? low[c]! : c;
+        kid[k++] = nd[c * NODE_STRIDE] === L ? nd[c * NODE_STRIDE + LOW]! : c;
       }
       if (order + minOnes[slotOf[lo]!]! <= maxOrder && prob * this.best(lo, maxOrder - order) >= slack) {
         this.push(lo, order, head, kid, k, prob);

@@ -25,7 +25,7 @@
  * of non-negative products, accurate to rounding even when P0 ≪ P (RRW) or P1 ≈ P (RAW).
  * I_B is Σ R(n)·(P(high) − P(low)): its absolute error is of the order of 1e-16·P1.
  */
-import type { BddManager } from './bdd.js';
+import { HIGH, LEVEL, LOW, NODE_STRIDE, type BddManager } from './bdd.js';
 
 export interface ImportanceResult {
   /** P(top). */
@@ -46,7 +46,8 @@ export function importance(m: BddManager, root: number, p: ArrayLike<number>, q?
   const nv = m.varCount;
   const nodes = m.topological([root]);
   const n = nodes.length;
-  const { level, low, high, order } = m.arrays();
+  const { nodes: nd, order } = m.arrays();
+  const level = (n: number): number => nd[n * NODE_STRIDE + LEVEL]!;
   const slotOf = new Int32Array(m.idLimit);
   slotOf[1] = 1;
   for (let i = 0; i < n; i++) slotOf[nodes[i]!] = i + 2;
@@ -56,9 +57,9 @@ export function importance(m: BddManager, root: number, p: ArrayLike<number>, q?
   const val = new Float64Array(n + 2);
   val[1] = 1;
   for (let i = 0; i < n; i++) {
-    const node = nodes[i]!;
-    const v = order[level[node]!]!;
-    val[i + 2] = p[v]! * val[slotOf[high[node]!]!]! + qOf(v) * val[slotOf[low[node]!]!]!;
+    const o = nodes[i]! * NODE_STRIDE;
+    const v = order[nd[o + LEVEL]!]!;
+    val[i + 2] = p[v]! * val[slotOf[nd[o + HIGH]!]!]! + qOf(v) * val[slotOf[nd[o + LOW]!]!]!;
   }
   const rootSlot = slotOf[root]!;
   const P = val[rootSlot]!;
@@ -68,20 +69,20 @@ export function importance(m: BddManager, root: number, p: ArrayLike<number>, q?
   const ib = new Float64Array(nv);
   const present = new Uint8Array(nv);
   const skips = new LevelRangeSums(nv);
-  if (P > 0) skips.add(0, level[root]!, P);
+  if (P > 0) skips.add(0, level(root), P);
 
   // Top-down: R(n), the probability of reaching n (reverse post-order visits parents first).
   const reach = new Float64Array(n + 2);
   reach[rootSlot] = 1;
   for (let i = n - 1; i >= 0; i--) {
-    const node = nodes[i]!;
+    const o = nodes[i]! * NODE_STRIDE;
     const r = reach[i + 2]!;
-    const a = level[node]!;
+    const a = nd[o + LEVEL]!;
     const v = order[a]!;
     const pv = p[v]!;
     const qv = qOf(v);
-    const hiNode = high[node]!;
-    const loNode = low[node]!;
+    const hiNode = nd[o + HIGH]!;
+    const loNode = nd[o + LOW]!;
     const hs = slotOf[hiNode]!;
     const ls = slotOf[loNode]!;
     const ph = val[hs]!;
@@ -92,9 +93,9 @@ export function importance(m: BddManager, root: number, p: ArrayLike<number>, q?
     a0[v] += r * pl;
     ib[v] += r * (ph - pl);
     present[v] = 1;
-    const bh = level[hiNode]!;
+    const bh = level(hiNode);
     if (bh > a + 1 && ph > 0) skips.add(a + 1, bh, r * pv * ph);
-    const bl = level[loNode]!;
+    const bl = level(loNode);
     if (bl > a + 1 && pl > 0) skips.add(a + 1, bl, r * qv * pl);
   }
 

@@ -9,7 +9,7 @@
  * accurate complement. For a variable whose probability is itself close to 1, pass `q` (its
  * complement per variable) so 1 − p is not formed by subtraction either.
  */
-import type { BddManager } from './bdd.js';
+import { HIGH, LOW, NODE_STRIDE, type BddManager } from './bdd.js';
 
 /** P(node) for p[v] = probability that variable v is true. */
 export function probability(m: BddManager, node: number, p: ArrayLike<number>, q?: ArrayLike<number>): number {
@@ -47,16 +47,16 @@ export class ProbabilityEvaluator {
     // Slot 0 = false, slot 1 = true, slot 2 + i = nodes[i].
     const slotOf = new Int32Array(m.idLimit);
     slotOf[1] = 1;
-    const { level, low, high, order } = m.arrays();
+    const { nodes: nd, order } = m.arrays();
     this.varOfSlot = new Int32Array(n);
     this.lowSlot = new Int32Array(n);
     this.highSlot = new Int32Array(n);
     for (let i = 0; i < n; i++) {
-      const node = this.nodes[i]!;
-      slotOf[node] = i + 2;
-      this.varOfSlot[i] = order[level[node]!]!;
-      this.lowSlot[i] = slotOf[low[node]!]!;
-      this.highSlot[i] = slotOf[high[node]!]!;
+      const o = this.nodes[i]! * NODE_STRIDE;
+      slotOf[this.nodes[i]!] = i + 2;
+      this.varOfSlot[i] = order[nd[o]!]!;
+      this.lowSlot[i] = slotOf[nd[o + LOW]!]!;
+      this.highSlot[i] = slotOf[nd[o + HIGH]!]!;
     }
     this.rootSlot = Int32Array.from(roots, (r) => slotOf[r]!);
     this.values = new Float64Array(n + 2);

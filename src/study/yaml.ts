@@ -26,7 +26,8 @@ const MAX_DEPTH = 64;
 
 export function parseYamlFile(file: string, text: string): YamlFile {
   const lineCounter = new LineCounter();
-  const doc = parseDocument(text, { lineCounter, uniqueKeys: true, prettyErrors: false, strict: true });
+  // stringKeys: a key that is a list or a mapping is an error here, not a warning printed by the parser later.
+  const doc = parseDocument(text, { lineCounter, uniqueKeys: true, prettyErrors: false, strict: true, stringKeys: true });
   const posOf = (offset: number): Pos => {
     const { line, col } = lineCounter.linePos(offset);
     return { file, line, col };
@@ -114,6 +115,8 @@ function explainYamlError(code: ErrorCode, raw: string, text: string, offset: nu
         ? { message: `the key '${key}' appears twice in one mapping`, hint: 'each key once in a mapping (merge the two entries or rename one)', offset }
         : { message: firstLine(raw), hint: 'each key once in a mapping', offset };
     }
+    case 'NON_STRING_KEY':
+      return { message: 'a key is a list or a mapping, not a name', hint: 'plain names as keys, e.g. "motor-a:"', offset };
     case 'MULTIPLE_DOCS':
       return { message: "the file holds more than one YAML document (a '---' line starts a second one)", hint: "one document per file: remove the '---' separator", offset };
     case 'RESOURCE_EXHAUSTION':

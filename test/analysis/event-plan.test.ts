@@ -62,7 +62,7 @@ function compare(c: Case, varying: Set<number>, seed: number): void {
   const plan = new EventPlan(study, c, varying);
   const values = randomValues(varying, seed);
   const index = new Map(study.parameters.map((p, i) => [p.key, i]));
-  const want = evaluateEvents(study, c, (key) => values[index.get(key)!]!).probability;
+  const want = evaluateEvents(study, c, (key) => values[index.get(key)!]!).total;
   const got = plan.evaluate(values, new Float64Array(study.events.length));
   expect(Array.from(got)).toEqual(Array.from(want));
 }

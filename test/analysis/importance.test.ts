@@ -146,3 +146,49 @@ describe('class importance (src/analysis/importance-classes.ts) against brute fo
     expect(c.rrw).toBeCloseTo(e.rrw, 11);
   });
 });
+
+describe('class importance with a common-cause group (beta factor, NUREG/CR-5485)', () => {
+  // Invented: three pumps of one class in a beta-factor group, two of three needed, or x.
+  const results = analyze(
+    studyOf({
+      events: `
+classes:
+  pump: { model: fixed, probability: { value: 0.1, source: test-data } }
+events:
+  a: { title: Pump A, class: pump }
+  b: { title: Pump B, class: pump }
+  c: { title: Pump C, class: pump }
+  x: { title: Other, model: fixed, probability: { value: 0.05, source: test-data } }
+`,
+      logic: `
+tops:
+  t: { title: Two pumps fail or x, gate: g }
+gates:
+  g: { any: [x, two] }
+  two: { atleast: 2, of: [a, b, c] }
+common_cause:
+  pumps: { members: [a, b, c], method: beta, beta: { value: 0.1, source: test-data } }
+`,
+    }),
+  );
+  // Variables a, b, c (independent parts (1 − β)Q = 0.09), x, and the shared event of all three
+  // (βQ = 0.01); each member fails if its own part or the shared event occurs.
+  const p = [0.09, 0.09, 0.09, 0.05, 0.01];
+  const fn = (v: readonly boolean[]) => {
+    const [a, b, c, x, s] = v;
+    return Boolean(x) || [a || s, b || s, c || s].filter(Boolean).length >= 2;
+  };
+
+  it('the class holds the shared event too: all working leaves only x', () => {
+    const exact = enumerate(p, fn);
+    expect(results.tops[0]!.probability.exact).toBeCloseTo(exact, 14);
+    const c = results.tops[0]!.class_importance!.find((k) => k.class === 'pump')!;
+    const p1 = enumerate([1, 1, 1, 0.05, 1], fn);
+    const p0 = enumerate([0, 0, 0, 0.05, 0], fn);
+    expect(p0).toBeCloseTo(0.05, 15);
+    expect(c.p_failed).toBeCloseTo(p1, 14);
+    expect(c.p_working).toBeCloseTo(p0, 14);
+    expect(c.fussell_vesely).toBeCloseTo((exact - p0) / exact, 12);
+    expect(c.rrw).toBeCloseTo(exact / p0, 12);
+  });
+});

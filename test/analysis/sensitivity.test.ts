@@ -141,3 +141,54 @@ events:
     for (let k = 2; k < curve.length; k++) expect(curve[k]!.probability).toBeGreaterThan(curve[k - 1]!.probability);
   });
 });
+
+describe('an end outside the parameter’s domain', () => {
+  it('is not evaluated: the parameter is listed as skipped with the reason (checkDomain of the study reader)', () => {
+    // shape × 2 overflows to Infinity, which no Weibull shape can be; the base case is valid.
+    const r = analyze(
+      studyOf({
+        events: 'events:\n  w: { title: W, model: weibull, shape: { value: 1e308, source: test-data }, scale: { value: 60 years, source: test-data }, installed: 2000 }\n  a: { title: A, model: fixed, probability: { value: 0.01, source: test-data } }\n',
+        logic: 'tops:\n  t: { title: T, gate: g }\ngates:\n  g: { any: [w, a] }\n',
+        settings: '  samples: 0\n  seed: 1\n  horizon: 0',
+      }),
+    );
+    const s = r.sensitivity![0]!;
+    expect(s.skipped.map((x) => x.key)).toEqual(['w.shape']);
+    expect(s.skipped[0]!.reason).toMatch(/Infinity/);
+    expect(s.tornado.map((x) => x.key).sort()).toEqual(['a.probability', 'w.scale']);
+  });
+});
+
+describe('a common-cause factor moves the top through the expansion (beta factor, NUREG/CR-5485)', () => {
+  // Two pumps of one class, Q = 0.1 each, in a beta-factor group; both must fail. Expanded:
+  // independent parts (1 − β)Q each and one shared event βQ, so
+  // P(β) = βQ + (1 − βQ)·((1 − β)Q)² (NUREG/CR-5485 beta factor; OR/AND of independent events).
+  const Q = 0.1;
+  const P = (beta: number) => beta * Q + (1 - beta * Q) * ((1 - beta) * Q) ** 2;
+  const r = analyze(
+    studyOf({
+      events: `classes:\n  pump: { model: fixed, probability: { value: ${Q}, source: test-data } }\nevents:\n  a: { title: Pump A, class: pump }\n  b: { title: Pump B, class: pump }\n`,
+      logic: `tops:\n  t: { title: Both pumps, gate: g }\ngates:\n  g: { all: [a, b] }\ncommon_cause:\n  pumps: { members: [a, b], method: beta, beta: { value: 0.1, source: test-data, range: [0.05, 0.2], uncertainty: { uniform: { min: 0.05, max: 0.2 } } } }\n`,
+      settings: '  samples: 40000\n  seed: 3\n  horizon: 0',
+    }),
+  );
+
+  it('tornado ends at P(0.05) and P(0.2)', () => {
+    const row = r.sensitivity![0]!.tornado.find((x) => x.key === 'pumps.beta')!;
+    expect(r.tops[0]!.probability.exact).toBeCloseTo(P(0.1), 15);
+    expect(row.low).toBeCloseTo(P(0.05), 15);
+    expect(row.high).toBeCloseTo(P(0.2), 15);
+  });
+
+  it('sampled uniformly, the Monte Carlo mean is within 3 standard errors of the mean of P(β) over [0.05, 0.2]', () => {
+    const u = r.uncertainty![0]!;
+    expect(u.sampled_parameters).toEqual(['pumps.beta']);
+    // E[P(β)] by Simpson's rule on the cubic P (exact for a cubic).
+    const n = 100;
+    const h = 0.15 / n;
+    let sum = P(0.05) + P(0.2);
+    for (let i = 1; i < n; i++) sum += (i % 2 ? 4 : 2) * P(0.05 + i * h);
+    const mean = (sum * h) / 3 / 0.15;
+    expect(Math.abs(u.mean - mean)).toBeLessThan(3 * u.standard_error);
+  });
+});

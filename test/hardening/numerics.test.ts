@@ -75,6 +75,19 @@ describe('failure models with extreme inputs (public API of src/reliability/mode
     expectRelative(weibullConditionalFailure(1e-3, 1e-9, 2, 1), -Math.expm1(-(2e-12 + 1e-18)), 1e-12);
   });
 
+  it('weibull with a very large shape is a step at η: 0 before it, 1 past it (no 0·∞)', () => {
+    // β → ∞: F(t) → 0 for t < η and 1 for t > η (common practice, no source). With u = a/η < 1 the
+    // factor u^β underflows to 0 while the growth factor overflows; the product is still exactly 0 here.
+    expect(weibullConditionalFailure(36, 1 / 12, 1e300, 60)).toBe(0);
+    expect(weibullConditionalFailure(36, 1, 11943, 60)).toBe(0);
+    expect(weibullEventProbability({ shape: 4e89, scale: 60, age: 36, exercise: 1 / 12, basis: 'average' })).toBe(0);
+    // Crossing η within the interval: certain failure.
+    expect(weibullConditionalFailure(59.95, 0.1, 1e6, 60)).toBe(1);
+    // A large but ordinary shape still agrees with the direct form H(a + s) − H(a) (no cancellation there).
+    const dH = Math.pow(59 / 60, 200) - Math.pow(58 / 60, 200);
+    expectRelative(weibullConditionalFailure(58, 1, 200, 60), -Math.expm1(-dH), 1e-12);
+  });
+
   it('weibull with exercise and repair: a 1e-18 conditional probability is not swallowed by the repair term', () => {
     // β = 1, η = 1e18 years, a = 1, τ = 1: q = 1 − e^(−1e-18) = 1e-18; found per year q/τ, MTTR 0.1:
     // q_rep = 1e-19; 1 − (1 − q)(1 − q_rep) = 1.1e-18 − 1e-37 (weibull.ts formula, algebra by hand).
@@ -281,6 +294,16 @@ describe('the node budget (settings.max_nodes, settings.on_node_budget)', () => 
     expect(top.probability.mcub).toBeLessThanOrEqual(top.probability.rare_event);
     expect(r.results.warnings.map((w: { code: string }) => w.code)).toContain('node-budget-bounds');
   });
+
+  it('the appendix of a bounded run says the number is a bound', async () => {
+    const study = budgetStudy('max_nodes: 1000, on_node_budget: bounds, cutoff: 3e-6');
+    const out = join(tempDir(), 'out');
+    const r = await faultbook('run', study, '--format', 'html', '--out', out, '--quiet');
+    expect(r.code).toBe(0);
+    const text = readFileSync(join(out, 'appendix.html'), 'utf8').replace(/<[^>]+>/g, ' ').replace(/\s+/g, ' ');
+    expect(text).toContain('This result is a bound, not an exact value');
+    expect(text).toMatch(/UPPER BOUND/);
+  }, 60_000);
 
   it('with on_node_budget: bounds and nothing cut off, the bound is the MCUB of every minimal cut set', async () => {
     const r = await runJson(budgetStudy('max_nodes: 1000, on_node_budget: bounds, cutoff: 0'));

@@ -108,6 +108,22 @@ describe('minimal cut sets vs brute force', () => {
     expect(small.truncatedProbability).toBeUndefined();
   });
 
+  it('keeps the same sets when the counting budget is spent at once (regression)', () => {
+    // Found by a property search against the brute-force oracle: a 3-of-5 vote with one event
+    // entered twice, order limit 2. Spending the budget used to corrupt the search's state.
+    const graph: LogicGraph = {
+      variables: ['e0', 'e1', 'e2', 'e3', 'e4', 'e5'],
+      gates: [{ id: 'g0', op: 'atleast', k: 3, inputs: [1, 2, 3, 0, 0].map((index) => ({ kind: 'var', index }) as const) }],
+    };
+    const p = [0.1, 0.2, 0.3, 0.4, 0.5, 0.6];
+    const c = compile(graph);
+    const expected = bruteSorted(graph, 0, p).filter((s) => s.vars.length <= 2);
+    for (const truncationBudget of [0, 1, 2, 5, 100]) {
+      const r = minimalCutSets(c.manager, c.gateRoots[0]!, p, { maxOrder: 2, truncationBudget });
+      expect(r.sets.map(key)).toEqual(expected.map(key));
+    }
+  });
+
   it('hand example: absorption gives {A} and {B, C} for (A or B) and (A or C)', () => {
     // Common practice, no source: Boolean absorption, A·A = A and A + A·X = A.
     const graph: LogicGraph = {

@@ -62,7 +62,15 @@ export function weibullHazardIncrement(age: number, s: number, shape: number, sc
   if (s === 0) return 0;
   if (age <= location) return weibullCumulativeHazard(age + s, shape, scale, location);
   const since = age - location;
-  return Math.pow(since / scale, shape) * Math.expm1(shape * Math.log1p(s / since));
+  const level = Math.pow(since / scale, shape);
+  const x = shape * Math.log1p(s / since);
+  const growth = Math.expm1(x);
+  const dH = level * growth;
+  if (!Number.isNaN(dH)) return dH;
+  // An extreme shape makes one factor 0 and the other ∞; their product is finite, so add logarithms:
+  // ln ΔH = β·ln u + ln(expm1(x)), with ln(expm1(x)) = x + log1p(−e^(−x)) for large x.
+  if (growth === 0) return level === Infinity ? Infinity : 0;
+  return Math.exp(shape * Math.log(since / scale) + x + Math.log1p(-Math.exp(-x)));
 }
 
 /** 1 − R(a + s)/R(a): probability of failing within s, having survived to age a. */
