@@ -1,5 +1,5 @@
 import type { ClassImportance, TopResult } from '../../analysis/results.js';
-import { barChart } from '../chart/bars.js';
+import { barChart } from '../charts/bars.js';
 import { anchor, type SectionRule } from '../context.js';
 import { code, col, para, row, subheading, table } from '../blocks.js';
 import { formatCount, formatProbability, formatRatio, formatShare } from '../format.js';
