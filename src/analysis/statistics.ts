@@ -2,6 +2,7 @@
  * Summaries of a sample of top-event probabilities: moments, percentiles, a log-spaced histogram,
  * the empirical cumulative curve and a convergence check. Pure arithmetic on the numbers given.
  */
+import type { UncertaintyResult } from './results.js';
 
 /** Cumulative probabilities at which the empirical cumulative curve is reported. */
 export const CDF_POINTS: readonly number[] = [0.01, 0.02, 0.05, 0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 0.95, 0.98, 0.99];
@@ -75,17 +76,8 @@ export function logHistogram(sorted: ArrayLike<number>, bins = HISTOGRAM_BINS): 
   return { edges, counts, zeros };
 }
 
-export interface SampleSummary {
-  mean: number;
-  median: number;
-  p05: number;
-  p95: number;
-  sd: number;
-  standard_error: number;
-  convergence: { p95_half: number; p95_full: number; relative_change: number };
-  histogram: { edges: number[]; counts: number[]; zeros: number };
-  cdf: { p: number; value: number }[];
-}
+/** The summary statistics of a sample, as the uncertainty results carry them. */
+export type SampleSummary = Pick<UncertaintyResult, 'mean' | 'median' | 'p05' | 'p95' | 'sd' | 'standard_error' | 'convergence' | 'histogram' | 'cdf'>;
 
 /**
  * Everything the report shows of one sample. The convergence check compares the 95th percentile of

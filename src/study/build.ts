@@ -4,7 +4,7 @@
  * (so one run reports as many as it can) and thrown together.
  */
 import { parseDate, yearsBetween } from '../reliability/units.js';
-import { StudyError, StudyErrors } from './errors.js';
+import { ErrorCollector, StudyError } from './errors.js';
 import { checkLogic } from './check-logic.js';
 import { readSharedCauseSections } from './event-trees.js';
 import { fitProvenance, fittedValue } from './fits.js';
@@ -56,17 +56,9 @@ export interface BuildInput {
 }
 
 export function buildStudy(input: BuildInput): Study {
-  const errors: StudyError[] = [];
-  const attempt = <T>(fn: () => T): T | undefined => {
-    try {
-      return fn();
-    } catch (err) {
-      if (err instanceof StudyError) errors.push(err);
-      else if (err instanceof StudyErrors) errors.push(...err.errors);
-      else throw err;
-      return undefined;
-    }
-  };
+  const collector = new ErrorCollector();
+  const errors = collector.errors;
+  const attempt = <T>(fn: () => T): T | undefined => collector.attempt(fn);
   const sections = mergeSections(input.yamlFiles);
   const meta = attempt(() => readMeta(sections));
   const settings = attempt(() => readSettings(sections)) ?? DEFAULT_SETTINGS;
@@ -177,7 +169,7 @@ export function buildStudy(input: BuildInput): Study {
     attempt(() => checkLogic({ tops, gates, events, commonCause, sections }));
     checkReferences({ events, parameters, sources, assumptions: input.assumptions, classes, commonCause }, errors);
   }
-  if (errors.length > 0) throw new StudyErrors(errors);
+  collector.throwIfAny();
 
   const study: Study = {
     root: input.root,

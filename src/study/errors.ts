@@ -30,3 +30,26 @@ export class StudyErrors extends Error {
     this.name = 'StudyErrors';
   }
 }
+
+/**
+ * Collects input problems so one pass reports as many as it can: `attempt` runs a step and keeps
+ * its StudyError(s); `throwIfAny` throws them together. Other exceptions pass through untouched.
+ */
+export class ErrorCollector {
+  readonly errors: StudyError[] = [];
+
+  attempt<T>(fn: () => T): T | undefined {
+    try {
+      return fn();
+    } catch (err) {
+      if (err instanceof StudyError) this.errors.push(err);
+      else if (err instanceof StudyErrors) this.errors.push(...err.errors);
+      else throw err;
+      return undefined;
+    }
+  }
+
+  throwIfAny(): void {
+    if (this.errors.length > 0) throw new StudyErrors(this.errors);
+  }
+}

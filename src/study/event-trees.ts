@@ -21,7 +21,7 @@
  * Numbers of trees and mode sets become Parameters (owner kinds `tree` and `modes`), so they carry
  * sources and appear in the provenance register like every other number.
  */
-import { StudyError, StudyErrors } from './errors.js';
+import { ErrorCollector, StudyError } from './errors.js';
 import { readParameter } from './quantities.js';
 import { entriesOf, type Sections } from './sections.js';
 import type {
@@ -62,17 +62,8 @@ export interface SharedCauseSections {
 
 /** All three sections; problems are collected and thrown together. */
 export function readSharedCauseSections(parts: TreeParts): SharedCauseSections {
-  const errors: StudyError[] = [];
-  const attempt = <T>(fn: () => T): T | undefined => {
-    try {
-      return fn();
-    } catch (err) {
-      if (err instanceof StudyError) errors.push(err);
-      else if (err instanceof StudyErrors) errors.push(...err.errors);
-      else throw err;
-      return undefined;
-    }
-  };
+  const collector = new ErrorCollector();
+  const attempt = <T>(fn: () => T): T | undefined => collector.attempt(fn);
   const names = new Names(parts);
   const counts: CountSet[] = [];
   for (const { id, raw, file } of entriesOf(parts.sections, 'counts')) {
@@ -94,7 +85,7 @@ export function readSharedCauseSections(parts: TreeParts): SharedCauseSections {
     const f = attempt(() => readModes(id, raw, file, trees, parts));
     if (f) failureModes.push(f);
   }
-  if (errors.length) throw new StudyErrors(errors);
+  collector.throwIfAny();
   return { counts, eventTrees, failureModes };
 }
 
