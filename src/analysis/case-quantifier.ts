@@ -7,13 +7,15 @@
  */
 import { ProbabilityEvaluator, type CompiledLogic } from '../logic/index.js';
 import type { Study } from '../study/types.js';
-import type { Case } from './case.js';
-import { evaluateEvents } from './event-probability.js';
+import { baseCase, type Case } from './case.js';
+import { evaluateEvents, type EventEvaluation } from './event-probability.js';
 import type { LogicModel } from './logic-model.js';
 import { compileCase } from './quantify.js';
 
 export class CaseQuantifier {
   private readonly diagrams = new Map<string, { compiled: CompiledLogic; evaluator: ProbabilityEvaluator }>();
+  /** The base case's events, so a case of parameter overrides re-evaluates only what it touches. */
+  private readonly base: EventEvaluation;
 
   constructor(
     readonly study: Study,
@@ -21,6 +23,7 @@ export class CaseQuantifier {
     baseCompiled: CompiledLogic,
   ) {
     this.diagrams.set(this.switchKey(new Map()), this.prepare(baseCompiled));
+    this.base = evaluateEvents(study, baseCase());
   }
 
   /** The compiled diagram and the prepared pass over the top roots for a case's switch states. */
@@ -41,7 +44,7 @@ export class CaseQuantifier {
 
   /** Top probabilities of a case, events evaluated from the study's values and the case's changes. */
   tops(c: Case): Float64Array {
-    return this.topsAt(c, evaluateEvents(this.study, c).probability);
+    return this.topsAt(c, evaluateEvents(this.study, c, undefined, this.base).probability);
   }
 
   private prepare(compiled: CompiledLogic): { compiled: CompiledLogic; evaluator: ProbabilityEvaluator } {

@@ -10,9 +10,48 @@ import { commonCauseOf } from './common-cause.js';
 /** Parameter value by key: the study's own, unless a sampler supplies another. */
 export type ParameterValues = (key: string) => number;
 
+const STUDY_VALUES = new WeakMap<Study, ParameterValues>();
+
+/** The study's own parameter values; the lookup is built once per study. */
 export function studyValues(study: Study): ParameterValues {
-  const byKey = new Map(study.parameters.map((p) => [p.key, p.value]));
-  return (key) => byKey.get(key)!;
+  let values = STUDY_VALUES.get(study);
+  if (!values) {
+    const byKey = new Map(study.parameters.map((p) => [p.key, p.value]));
+    values = (key) => byKey.get(key)!;
+    STUDY_VALUES.set(study, values);
+  }
+  return values;
+}
+
+const READERS = new WeakMap<Study, Map<string, number[]>>();
+
+/** Events (by index) that read each override key: a parameter key, or an event's own `event.field`. */
+function readersOf(study: Study): Map<string, number[]> {
+  let readers = READERS.get(study);
+  if (!readers) {
+    readers = new Map();
+    const add = (key: string, i: number) => readers!.set(key, [...(readers!.get(key) ?? []), i]);
+    study.events.forEach((e, i) => {
+      for (const [field, key] of Object.entries(e.fields)) {
+        add(key, i);
+        if (key !== `${e.id}.${field}`) add(`${e.id}.${field}`, i);
+      }
+    });
+    READERS.set(study, readers);
+  }
+  return readers;
+}
+
+/**
+ * The events a case can change when it differs from the base case only by parameter overrides;
+ * undefined when it also moves time, renews or switches (then every event is evaluated again).
+ */
+function touchedBy(study: Study, c: Case): Set<number> | undefined {
+  if (c.years !== 0 || c.renewals.size > 0 || c.switches.size > 0) return undefined;
+  const readers = readersOf(study);
+  const touched = new Set<number>();
+  for (const key of c.overrides.keys()) for (const i of readers.get(key) ?? []) touched.add(i);
+  return touched;
 }
 
 export interface EventEvaluation {
@@ -29,14 +68,22 @@ export interface EventEvaluation {
   ages: (number | undefined)[];
 }
 
-export function evaluateEvents(study: Study, c: Case, values: ParameterValues = studyValues(study)): EventEvaluation {
+/**
+ * Event probabilities of a case. With `base` (the base case's evaluation, from the study's own
+ * values), a case that only overrides parameters re-evaluates just the events that read them:
+ * one-at-a-time sensitivity of a large study touches a handful of events per point, not all.
+ */
+export function evaluateEvents(study: Study, c: Case, values?: ParameterValues, base?: EventEvaluation): EventEvaluation {
+  const touched = base && values === undefined ? touchedBy(study, c) : undefined;
+  const lookup = values ?? studyValues(study);
   const n = study.events.length;
-  const probability = new Float64Array(n);
-  const used: Record<string, number>[] = [];
-  const ages: (number | undefined)[] = [];
+  const probability = touched ? Float64Array.from(base!.total) : new Float64Array(n);
+  const used: Record<string, number>[] = touched ? [...base!.used] : [];
+  const ages: (number | undefined)[] = touched ? [...base!.ages] : [];
   study.events.forEach((e, i) => {
+    if (touched && !touched.has(i)) return;
     const fields: Record<string, number> = {};
-    for (const field of Object.keys(e.fields)) fields[field] = fieldValue(e, field, c, values)!;
+    for (const field of Object.keys(e.fields)) fields[field] = fieldValue(e, field, c, lookup)!;
     const age = ageInCase(study, e, c);
     const on = c.switches.get(e.id) ?? e.on;
     const q = modelProbability(e.model, fields, {
@@ -48,9 +95,9 @@ export function evaluateEvents(study: Study, c: Case, values: ParameterValues = 
       throw new Error(`event '${e.id}' (${e.model}) gave probability ${q} from ${JSON.stringify(fields)}`);
     }
     probability[i] = q;
-    used.push(fields);
-    ages.push(age);
+    used[i] = fields;
+    ages[i] = age;
   });
-  const expanded = commonCauseOf(study).apply(probability, (key) => c.overrides.get(key) ?? values(key));
+  const expanded = commonCauseOf(study).apply(probability, (key) => c.overrides.get(key) ?? lookup(key));
   return { probability: expanded, total: probability, used, ages };
 }
