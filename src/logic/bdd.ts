@@ -14,9 +14,11 @@
  *   are. Negation costs one cached pass over its operand instead.
  * - A unique table (hash chains through the link field) keeps the diagram reduced and canonical: two nodes
  *   with equal (level, low, high) are the same node, so equal functions have equal ids.
- * - One operation engine (AND, OR, ITE, NOT, restrict) with a lossy, direct-mapped computed cache,
- *   run with explicit stacks instead of recursion: a path can be as long as there are variables
- *   (tens of thousands), which would overflow the JavaScript call stack.
+ * - Operations run with explicit stacks instead of recursion: a path can be as long as there are
+ *   variables (tens of thousands), which would overflow the JavaScript call stack. AND and OR,
+ *   the bulk of any fault-tree build, have their own loop (apply2) that answers terminal cases and
+ *   cache hits before pushing a frame; ITE, NOT and restrict share a general one (run). Both use
+ *   one lossy, direct-mapped computed cache.
  * - No garbage collection and no dynamic reordering: a fault tree keeps the diagram of every gate
  *   anyway, and the order is chosen up front (see order.ts). `maxNodes` bounds the memory instead.
  *
@@ -68,6 +70,9 @@ const NEXT = 3;
  */
 const CACHE_RATIO = 4;
 
+/** Node ids stay below 2^28 so `(h << 3) | op` in a cache key is exact. */
+const MAX_NODE_ID = 2 ** 28;
+
 function nextPowerOfTwo(n: number): number {
   let c = 1;
   while (c < n) c *= 2;
@@ -81,7 +86,7 @@ export class BddManager {
   readonly order: Int32Array;
   /** levelOfVar[variable] = level. */
   readonly levelOfVar: Int32Array;
-  /** Internal-node budget (Infinity when unbounded). */
+  /** Internal-node budget: the `maxNodes` option, capped at 2^28 − 2 (the id range of the cache). */
   readonly maxNodes: number;
 
   /** The node table, NODE_STRIDE ints per node: level, low, high, next in hash chain. */
@@ -108,6 +113,8 @@ export class BddManager {
   private stamp: Uint32Array;
   private stampGen = 0;
 
+  private allMonotone = true;
+
   /**
    * @param order order[level] = variable index: a permutation of 0..n−1. A plain number n means
    *   the identity order on n variables.
@@ -127,7 +134,9 @@ export class BddManager {
     }
     const budget = options.maxNodes ?? Infinity;
     if (!(budget >= 0)) throw new RangeError('maxNodes must be a non-negative number');
-    this.maxNodes = budget;
+    // The cache packs a node id into 29 bits with the operation code; beyond that, refuse as if
+    // the budget were spent (it is also 4 GiB of node table).
+    this.maxNodes = Math.min(budget, MAX_NODE_ID - 2);
 
     const cap = nextPowerOfTwo(Math.max(1024, options.initialCapacity ?? 1 << 14));
     this.capacity = cap;
@@ -192,7 +201,7 @@ export class BddManager {
   variable(v: number): number {
     const l = this.levelOfVar[v];
     if (l === undefined || l < 0) throw new RangeError(`no variable ${v}`);
-    return this.mk(l, FALSE, TRUE);
+    return this.make(l, FALSE, TRUE);
   }
 
   and(a: number, b: number): number {
@@ -204,11 +213,13 @@ export class BddManager {
   }
 
   not(a: number): number {
+    this.allMonotone = false;
     return this.run(OP_NOT, a, 0, 0);
   }
 
   /** if f then g else h. */
   ite(f: number, g: number, h: number): number {
+    this.allMonotone = false;
     return this.run(OP_ITE, f, g, h);
   }
 
@@ -242,7 +253,9 @@ export class BddManager {
     t[0] = TRUE;
     for (let i = n - 1; i >= 0; i--) {
       const x = xs[i]!;
-      for (let j = k; j >= 1; j--) t[j] = this.ite(x, t[j - 1]!, t[j]!);
+      // ite(x, a, b) with b ≤ a is (x ∧ a) ∨ b: monotone when x, a and b are, so this does not
+      // clear everyNodeMonotone.
+      for (let j = k; j >= 1; j--) t[j] = this.run(OP_ITE, x, t[j - 1]!, t[j]!);
     }
     return t[k]!;
   }
@@ -313,8 +326,48 @@ export class BddManager {
     return n === TRUE;
   }
 
-  /** Finds or makes the node (level, low, high); the reduction rule low = high returns low. */
+  /**
+   * Finds or makes the node (level, low, high); the reduction rule low = high returns low. The
+   * caller vouches for the ordering (both children below `level`). Any function can be built this
+   * way, so the manager stops assuming its nodes are monotone.
+   */
   mk(level: number, low: number, high: number): number {
+    this.allMonotone = false;
+    return this.make(level, low, high);
+  }
+
+  /**
+   * True while every node made so far is a monotone (coherent) function: only variables, AND, OR,
+   * voting, restrict and constants were used. not(), ite(), exactlyAll() and mk() end it, since
+   * they can make non-monotone functions. Lets the cut-set search skip the monotone relaxation.
+   */
+  get everyNodeMonotone(): boolean {
+    return this.allMonotone;
+  }
+
+  /**
+   * The monotone relaxation f⁺(x) = max over y ≤ x of f(y): f with its negative literals dropped.
+   * Node by node, f⁺ = ite(x, f⁺(high) ∨ f⁺(low), f⁺(low)), bottom-up over the reachable nodes.
+   * It is `root` itself exactly when f is monotone (the diagram is canonical).
+   */
+  monotoneRelaxation(root: number): number {
+    if (this.allMonotone) return root;
+    const nodes = this.topological([root]);
+    // Indexed by the ids that exist now; the new nodes made below are never looked up.
+    const map = new Int32Array(this.count);
+    map[TRUE] = TRUE;
+    for (let i = 0; i < nodes.length; i++) {
+      const n = nodes[i]!;
+      const o = n * NODE_STRIDE;
+      const lo = map[this.nd[o + LOW]!]!;
+      const hi = map[this.nd[o + HIGH]!]!;
+      const level = this.nd[o + LEVEL]!;
+      map[n] = this.make(level, lo, this.or(hi, lo));
+    }
+    return map[root]!;
+  }
+
+  private make(level: number, low: number, high: number): number {
     if (low === high) return low;
     let h = hash3(level, low, high) & this.bucketMask;
     const nd = this.nd;
@@ -444,7 +497,7 @@ export class BddManager {
       if (state === 3) {
         const r1 = res[--rp]!;
         const r0 = res[--rp]!;
-        const r = this.mk(fL[t]!, r0, r1);
+        const r = this.make(fL[t]!, r0, r1);
         this.cachePut(op, fF[t]!, fG[t]!, 0, r);
         res[rp++] = r;
         sp--;
@@ -611,7 +664,7 @@ export class BddManager {
       } else {
         const r1 = res[--rp]!;
         const r0 = res[--rp]!;
-        const r = this.mk(fL[t]!, r0, r1);
+        const r = this.make(fL[t]!, r0, r1);
         this.cachePut(fOp[t]!, fF[t]!, fG[t]!, fH[t]!, r);
         res[rp++] = r;
         sp--;

@@ -5,13 +5,11 @@
 import { BddManager, FALSE, TRUE } from './bdd.js';
 import { LogicGraphError } from './errors.js';
 import type { LogicGraph, NodeRef } from './graph.js';
-import { variableOrder, type OrderHeuristic } from './order.js';
+import { variableOrder } from './order.js';
 
 export interface CompileOptions {
-  /** order[level] = variable index; overrides the heuristic. Must be a permutation of all variables. */
+  /** order[level] = variable index; overrides the heuristic (order.ts). A permutation of all variables. */
   order?: readonly number[];
-  /** Heuristic used when `order` is absent (default 'weighted', see order.ts). */
-  heuristic?: OrderHeuristic;
   /** Internal-node budget of the manager; exceeding it throws NodeBudgetExceeded. */
   maxNodes?: number;
   /** Variables held at a constant value (house events): variable index → value. */
@@ -35,7 +33,7 @@ export interface CompiledLogic {
 export function compile(graph: LogicGraph, options: CompileOptions = {}): CompiledLogic {
   const nv = graph.variables.length;
   const ng = graph.gates.length;
-  const order = options.order ? [...options.order] : variableOrder(graph, options.heuristic);
+  const order = options.order ? [...options.order] : variableOrder(graph);
   if (order.length !== nv) throw new LogicGraphError(`order has ${order.length} entries for ${nv} variables`);
   let manager: BddManager;
   try {

@@ -30,12 +30,14 @@
  * of the monotone relaxation f⁺(x) = max over y ≤ x of f(y) — the function with its negative
  * literals dropped (replaced by true). Its minimal cut sets are the minimal sets S such that
  * "S true, everything else false" makes f true; each is the positive part of a prime implicant.
- * On the diagram f⁺ is ite(x, f⁺(high) ∨ f⁺(low), f⁺(low)) node by node. A set's probability is
- * the product of its events' probabilities, and `coherent` is false. Since the diagram is
- * canonical, f is monotone exactly when f⁺ is the same node, which is how `coherent` is decided.
+ * On the diagram f⁺ is ite(x, f⁺(high) ∨ f⁺(low), f⁺(low)) node by node
+ * (BddManager.monotoneRelaxation). A set's probability is the product of its events'
+ * probabilities, and `coherent` is false. Since the diagram is canonical, f is monotone exactly
+ * when f⁺ is the same node, which is how `coherent` is decided; when the manager knows every node
+ * it made is monotone (no negation was ever used), the relaxation is skipped altogether.
  * The exact top probability is not affected: it comes from the diagram of f itself.
  */
-import { HIGH, LOW, NODE_STRIDE, TRUE, type BddManager } from './bdd.js';
+import { HIGH, LOW, NODE_STRIDE, type BddManager } from './bdd.js';
 
 export interface CutSet {
   /** Variable indices, ascending. */
@@ -52,8 +54,9 @@ export interface CutSetOptions {
   /** Search steps allowed for counting what was dropped (default 100000). */
   truncationBudget?: number;
   /**
-   * The caller knows the function is monotone (its graph has no negation), so the relaxation need
-   * not be built. Wrong use gives wrong sets; leave unset when unsure.
+   * The caller knows the function is monotone, so the relaxation need not be built. Wrong use
+   * gives wrong sets; leave unset when unsure (the manager already skips it when it never used
+   * negation, see BddManager.everyNodeMonotone).
    */
   monotone?: boolean;
 }
@@ -69,21 +72,6 @@ export interface CutSetResult {
   truncatedExact: boolean;
   /** False when the function is not monotone and the sets are those of its monotone relaxation. */
   coherent: boolean;
-}
-
-/** The monotone relaxation f⁺ of a node (itself when the function is already monotone). */
-export function monotoneRelaxation(m: BddManager, root: number): number {
-  const nodes = m.topological([root]);
-  // Indexed by the ids that exist now; the new nodes made below are never looked up.
-  const map = new Int32Array(m.idLimit);
-  map[TRUE] = TRUE;
-  for (let i = 0; i < nodes.length; i++) {
-    const n = nodes[i]!;
-    const lo = map[m.low(n)]!;
-    const hi = map[m.high(n)]!;
-    map[n] = m.mk(m.levelOf(n), lo, m.or(hi, lo));
-  }
-  return map[root]!;
 }
 
 /**
@@ -122,6 +110,10 @@ class CompensatedSum {
 /** Most bound rows kept per node: k = 0..MAX_ROWS−1 exactly; beyond that the unlimited bound. */
 const MAX_ROWS = 13;
 
+/**
+ * Minimal cut sets of `root` with probability ≥ cutoff and at most maxOrder events, each event
+ * true with probability p[v] (method and the non-coherent case: see the top of this file).
+ */
 export function minimalCutSets(
   m: BddManager,
   root: number,
@@ -132,7 +124,7 @@ export function minimalCutSets(
   const maxOrder = options.maxOrder ?? Infinity;
   if (!(cutoff >= 0)) throw new RangeError('cutoff must be ≥ 0');
   if (!(maxOrder >= 0)) throw new RangeError('maxOrder must be ≥ 0');
-  const g = options.monotone ? root : monotoneRelaxation(m, root);
+  const g = options.monotone ? root : m.monotoneRelaxation(root);
   const tables = new SearchTables(m, g, p, Math.min(MAX_ROWS, Math.min(maxOrder, m.varCount) + 1));
   const search = new CutSetSearch(m, tables, p, Math.min(maxOrder, m.varCount), cutoff);
   const counter = new CutSetSearch(m, tables, p, Infinity, 0);

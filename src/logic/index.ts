@@ -3,15 +3,14 @@
  * functions and plain data; no file system, clock or randomness.
  */
 export type { GateOp, LogicGate, LogicGraph, NodeRef } from './graph.js';
-export { BddManager, FALSE, TRUE, type BddArrays, type BddManagerOptions } from './bdd.js';
+export { BddManager, FALSE, HIGH, LEVEL, LOW, NODE_STRIDE, TRUE, type BddArrays, type BddManagerOptions } from './bdd.js';
 export { LogicGraphError, NodeBudgetExceeded } from './errors.js';
-export { variableOrder, type OrderHeuristic } from './order.js';
+export { variableOrder } from './order.js';
 export { compile, type CompiledLogic, type CompileOptions } from './compile.js';
 export { probability, probabilityPair, ProbabilityEvaluator } from './probability.js';
 export {
   cutSetBounds,
   minimalCutSets,
-  monotoneRelaxation,
   type CutSet,
   type CutSetOptions,
   type CutSetResult,

@@ -290,7 +290,7 @@ describe('the HTML appendix of a hostile study', () => {
       const state = await page.evaluate(() => ({
         pwned: (window as unknown as { __pwned?: number }).__pwned,
         scripts: document.querySelectorAll('script').length,
-        handlers: [...document.querySelectorAll('*')].filter((el) => [...el.attributes].some((a) => a.name.startsWith('on'))).length,
+        handlers: Array.from(document.querySelectorAll('*')).filter((el) => Array.from(el.attributes).some((a) => a.name.startsWith('on'))).length,
       }));
       expect(state).toEqual({ pwned: undefined, scripts: 1, handlers: 0 });
       expect(requests.filter((u) => !u.startsWith('data:'))).toEqual([]);

@@ -196,6 +196,30 @@ describe('compile', () => {
     expect(c.negationFree).toBe(true);
   });
 
+  it('knows when every node it made is monotone, and the relaxation is then the node itself', () => {
+    // A graph without not-gates builds only monotone functions (common practice, no source:
+    // AND, OR and k-out-of-n of monotone functions are monotone).
+    const coherent: LogicGraph = {
+      variables: ['a', 'b', 'c'],
+      gates: [{ id: 'vote', op: 'atleast', k: 2, inputs: [v(0), v(1), v(2)] }],
+    };
+    const c1 = compile(coherent);
+    expect(c1.manager.everyNodeMonotone).toBe(true);
+    expect(c1.manager.monotoneRelaxation(c1.gateRoots[0]!)).toBe(c1.gateRoots[0]);
+    const withNot: LogicGraph = {
+      variables: ['a', 'b'],
+      gates: [
+        { id: 'top', op: 'and', inputs: [v(0), g(1)] },
+        { id: 'nb', op: 'not', inputs: [v(1)] },
+      ],
+    };
+    const c2 = compile(withNot);
+    const m = c2.manager;
+    expect(m.everyNodeMonotone).toBe(false);
+    // a ∧ ¬b relaxes to a (the negative literal dropped).
+    expect(m.monotoneRelaxation(c2.gateRoots[0]!)).toBe(m.variable(0));
+  });
+
   it('rejects malformed graphs with LogicGraphError', () => {
     const base = { variables: ['a', 'b'] };
     const bad: LogicGraph[] = [
@@ -225,8 +249,6 @@ describe('variable-ordering heuristic', () => {
       ],
     };
     expect(variableOrder(graph)).toEqual([3, 1, 4, 0, 2, 5]);
-    // Weighted: smaller inputs first at each gate (the event e, then g1, then g2).
-    expect(variableOrder(graph, 'weighted')).toEqual([4, 3, 1, 0, 2, 5]);
     expect(compile(graph).order).toEqual([3, 1, 4, 0, 2, 5]);
   });
 });
