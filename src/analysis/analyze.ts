@@ -7,7 +7,7 @@ import type { Study } from '../study/types.js';
 import type { CompiledLogic } from '../logic/index.js';
 import { baseCase } from './case.js';
 import { driversStage } from './drivers-stage.js';
-import { evaluateEvents, type EventEvaluation } from './event-probability.js';
+import { evaluateEvents, EventProbabilityError, type EventEvaluation } from './event-probability.js';
 import { fitsStage } from './fits.js';
 import { buildLogicModel, type LogicModel } from './logic-model.js';
 import { boundTops, boundWarning, compileBaseCase, quantifyTops } from './quantify.js';
@@ -39,7 +39,7 @@ const STAGES: Stage[] = [fitsStage, driversStage, sharedCauseStage];
 export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
   const model = buildLogicModel(study);
   const base = baseCase();
-  const evaluation = evaluateEvents(study, base);
+  const evaluation = evaluateBase(study, base);
   // Undefined when the diagram outgrew max_nodes and the study allows cut-set bounds instead.
   const compiled = compileBaseCase(study, model, base.switches);
   const tops = compiled ? quantifyTops(study, model, compiled, evaluation.probability) : boundTops(study, model, base.switches, evaluation.probability);
@@ -66,6 +66,16 @@ export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
   const ctx: AnalysisContext = { study, model, compiled, base: evaluation, results, options };
   for (const stage of STAGES) Object.assign(results, stage(ctx));
   return results;
+}
+
+/** The base case's events; a model that cannot evaluate the study's own numbers is an input error. */
+function evaluateBase(study: Study, base: ReturnType<typeof baseCase>): EventEvaluation {
+  try {
+    return evaluateEvents(study, base);
+  } catch (err) {
+    if (err instanceof EventProbabilityError) throw err.toStudyError();
+    throw err;
+  }
 }
 
 function eventResults(study: Study, evaluation: EventEvaluation): EventResult[] {

@@ -3,7 +3,8 @@
  * (scenario overrides, sampled values), its age moved to the case's year, then the failure model.
  */
 import { modelProbability } from '../reliability/models/index.js';
-import type { Study } from '../study/types.js';
+import { StudyError } from '../study/errors.js';
+import type { BasicEvent, Study } from '../study/types.js';
 import { ageInCase, fieldValue, type Case } from './case.js';
 import { commonCauseOf } from './common-cause.js';
 
@@ -54,6 +55,26 @@ function touchedBy(study: Study, c: Case): Set<number> | undefined {
   return touched;
 }
 
+/**
+ * A failure model gave no probability for the numbers it was handed: values that pass every domain
+ * check can still be out of reach of double precision (a Weibull shape of 1e300). From the study's
+ * own values this is an input problem; from a sensitivity point, a point that cannot be evaluated.
+ */
+export class EventProbabilityError extends Error {
+  constructor(
+    readonly event: BasicEvent,
+    readonly value: number,
+    readonly fields: Record<string, number>,
+  ) {
+    super(`event '${event.id}' (${event.model} model) gives no probability (${value}) from ${JSON.stringify(fields)}`);
+    this.name = 'EventProbabilityError';
+  }
+
+  toStudyError(): StudyError {
+    return new StudyError(this.message, this.event.at, 'parameter values within the range double-precision arithmetic can evaluate (check for extreme magnitudes)');
+  }
+}
+
 export interface EventEvaluation {
   /**
    * One entry per variable of the logic model, the vector the decision diagrams take: the study's
@@ -91,9 +112,7 @@ export function evaluateEvents(study: Study, c: Case, values?: ParameterValues, 
       exerciseBasis: study.settings.exercise_basis,
       ...(on !== undefined ? { on } : {}),
     });
-    if (!(q >= 0 && q <= 1)) {
-      throw new Error(`event '${e.id}' (${e.model}) gave probability ${q} from ${JSON.stringify(fields)}`);
-    }
+    if (!(q >= 0 && q <= 1)) throw new EventProbabilityError(e, q, fields);
     probability[i] = q;
     used[i] = fields;
     ages[i] = age;

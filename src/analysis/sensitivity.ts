@@ -10,6 +10,7 @@
  * value × factor that overflows) is not evaluated; the parameter is listed as skipped, with why.
  */
 import { DAYS_PER_YEAR } from '../reliability/units.js';
+import { EventProbabilityError } from './event-probability.js';
 import { StudyError } from '../study/errors.js';
 import { checkDomain } from '../study/quantities.js';
 import type { Parameter, Study } from '../study/types.js';
@@ -60,15 +61,16 @@ export function sensitivity(study: Study, quantifier: CaseQuantifier, base: Floa
     const [low, high] = sensitivityBounds(p, factor);
     return inDomain(p, low) && inDomain(p, high);
   });
-  const points = evaluable.map((p) => {
+  const points = evaluable.flatMap((p) => {
     const [lowValue, highValue] = sensitivityBounds(p, factor);
-    return {
-      key: p.key,
-      lowValue,
-      highValue,
-      low: quantifier.tops(withOverrides([[p.key, lowValue]])),
-      high: quantifier.tops(withOverrides([[p.key, highValue]])),
-    };
+    try {
+      return [{ key: p.key, lowValue, highValue, low: quantifier.tops(withOverrides([[p.key, lowValue]])), high: quantifier.tops(withOverrides([[p.key, highValue]])) }];
+    } catch (err) {
+      // An end that passes the domain checks but that the model cannot evaluate (overflow) is skipped, with why.
+      if (!(err instanceof EventProbabilityError)) throw err;
+      skipped.push({ key: p.key, reason: `${lowValue} to ${highValue}: ${err.message}` });
+      return [];
+    }
   });
 
   const exerciseKeys = params.filter((p) => p.field === 'exercise');
