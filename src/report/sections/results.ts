@@ -59,8 +59,9 @@ function topBlocks(top: TopResult, nextTable: () => string): Block[] {
         [
           'The decision diagram for this top event grew past its node budget (setting ',
           code('max_nodes'),
-          '), and the run was allowed to fall back on cut-set bounds. The figure shown as the result is therefore a bound ',
-          'computed from the listed minimal cut sets, not the exact probability. Raise the node budget, or simplify the model, to obtain the exact value.',
+          '), and the run was allowed to fall back on cut-set bounds. The figure shown as the result is therefore an upper bound, ',
+          'the min-cut upper bound over the minimal cut sets kept and every partial product the cutoff dropped, not the exact probability. ',
+          'Raise the node budget, or simplify the model, to obtain the exact value.',
         ],
       ),
     );
