@@ -1,7 +1,6 @@
 import { readFileSync, writeFileSync, cpSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-// @ts-expect-error -- @stdlib packages ship no TypeScript types
 import weibullCdf from '@stdlib/stats-base-dists-weibull-cdf';
 import { faultbook, tempDir } from './helpers.js';
 

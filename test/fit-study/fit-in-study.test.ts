@@ -1,11 +1,11 @@
 // A life-data fit inside a study, end to end: from the CSV in data/ to the parameters, the event
 // probabilities, results.json and the appendix. The study is test/fixtures/fit-study (invented) with
 // the shared reference records (Lieblein & Zelen 1956 ball-bearing lives) as its data.
+import { haveTool, PDFTOTEXT } from '../tools.js';
 import { execFileSync } from 'node:child_process';
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-// @ts-expect-error -- @stdlib packages ship no TypeScript types
 import weibullCdf from '@stdlib/stats-base-dists-weibull-cdf';
 import { faultbook, tempDir } from '../cli/helpers.js';
 import { BALL_BEARINGS_PATH, DATA, analyzeStudy, buildStudy, onlyFit, referenceLives, replaceIn } from './study.js';
@@ -21,15 +21,6 @@ const cdf = (t: number, shape: number, scale: number): number => weibullCdf(t, s
 const PUBLISHED = { shape: 2.102, scale: 81.88 };
 
 const sig4 = (x: number): number => Number(x.toPrecision(4));
-
-function hasPdftotext(): boolean {
-  try {
-    execFileSync('pdftotext', ['-v'], { stdio: 'ignore' });
-    return true;
-  } catch {
-    return false;
-  }
-}
 
 describe('a fit in a study: records → parameters → probabilities', () => {
   it('gives the fitted parameters the published MLE values, with the provenance line', async () => {
@@ -187,11 +178,7 @@ describe('a fit in a study: the appendix', () => {
 
     const pdf = join(out, 'appendix.pdf');
     expect(existsSync(pdf)).toBe(true);
-    if (!hasPdftotext()) {
-      if (process.env.CI) throw new Error('pdftotext is needed in CI (apt-get install -y poppler-utils)');
-      console.warn('skipped the PDF text check: pdftotext not found (apt-get install -y poppler-utils)');
-      return;
-    }
+    if (!haveTool(PDFTOTEXT, 'the PDF text check of the fits section')) return;
     const text = execFileSync('pdftotext', ['-layout', pdf, '-'], { encoding: 'utf8' });
     expect(text).toContain('Life-data fits');
     expect(text).toContain('Weibull probability plot of bearing-life');

@@ -1,7 +1,6 @@
 // The Weibull probability plot read back from its SVG: the axes are calibrated from the labelled
 // ticks, and what is drawn is compared with the fit it was given and with @stdlib's Weibull CDF.
 import { describe, expect, it } from 'vitest';
-// @ts-expect-error -- @stdlib packages ship no TypeScript types
 import weibullCdf from '@stdlib/stats-base-dists-weibull-cdf';
 import type { FitResult } from '../../src/analysis/results.js';
 import { weibullPlot } from '../../src/report/charts/weibull-plot.js';

@@ -3,6 +3,7 @@
  * nothing; the HTML appendix of a hostile study shows its strings as text under a policy that allows
  * no request; and no module of the tool can open a network connection.
  */
+import { CHROMIUM, haveTool } from '../tools.js';
 import { existsSync, mkdirSync, readdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -170,7 +171,7 @@ describe('outputs replace earlier ones all or nothing (src/cli/outputs.ts)', () 
  */
 function startTags(html: string): [string, [string, string][]][] {
   const out: [string, [string, string][]][] = [];
-  const text = html.replace(/<(script|style)\b[^>]*>[\s\S]*?<\/\1>/gi, (m, name: string) => `<${name}>`);
+  const text = html.replace(/<(script|style)\b[^>]*>[\s\S]*?<\/\1>/gi, (_m, name: string) => `<${name}>`);
   const tagRe = /<([a-zA-Z][^\s/>]*)((?:[^>"']|"[^"]*"|'[^']*')*)>/g;
   for (const m of text.matchAll(tagRe)) {
     const attrs: [string, string][] = [];
@@ -264,11 +265,7 @@ describe('the HTML appendix of a hostile study', () => {
   });
 
   it('runs none of it and fetches nothing in a real browser', async () => {
-    const CHROMIUM = '/usr/bin/chromium';
-    if (!existsSync(CHROMIUM)) {
-      console.warn(`browser check skipped: ${CHROMIUM} not found (Debian: apt-get install -y chromium)`);
-      return;
-    }
+    if (!haveTool(CHROMIUM, 'hostile-string browser check')) return;
     const { file } = await render();
     const { chromium } = await import('playwright-core');
     const profile = join(tempDir('faultbook-hostile-browser-'), 'profile');

@@ -1,4 +1,4 @@
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -7,10 +7,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildViewModel, renderHtml } from '../../src/report/index.js';
 import { fixtureInputs, fixtureResults } from './fixture.js';
 import { CHROMIUM } from './helpers.js';
+import { haveTool } from '../tools.js';
 import { HOSTILE, hostileResults } from './synthetic.js';
 
-const haveBrowser = existsSync(CHROMIUM);
-if (!haveBrowser) console.warn(`browser tests skipped: ${CHROMIUM} not found (Debian: apt-get install -y chromium)`);
+const haveBrowser = haveTool(CHROMIUM, 'browser tests');
 
 /** Width and height from a PNG's IHDR chunk (PNG specification, ISO/IEC 15948, §11.2.2). */
 function pngSize(png: Buffer): { width: number; height: number } {

@@ -68,5 +68,4 @@ export function svgNodes(svg: string): { node: string; kind: string; target?: st
   return out;
 }
 
-export const CHROMIUM = '/usr/bin/chromium';
-export const PDFTOTEXT = '/usr/bin/pdftotext';
+export { CHROMIUM, PDFTOTEXT } from '../tools.js';

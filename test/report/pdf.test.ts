@@ -1,5 +1,6 @@
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { haveTool } from '../tools.js';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import pdfmake from 'pdfmake';
@@ -11,8 +12,7 @@ import { fixtureInputs, fixtureResults } from './fixture.js';
 import { PDFTOTEXT, figures } from './helpers.js';
 import { hostileResults } from './synthetic.js';
 
-const havePoppler = existsSync(PDFTOTEXT);
-if (!havePoppler) console.warn(`PDF text checks skipped: ${PDFTOTEXT} not found (Debian: apt-get install -y poppler-utils)`);
+const havePoppler = haveTool(PDFTOTEXT, 'PDF text checks');
 
 let dir: string;
 beforeAll(() => {
