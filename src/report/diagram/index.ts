@@ -88,7 +88,7 @@ function noteFor(t: FigureTree, model: DiagramModel, numbers: Map<string, { numb
  * A figure wider than a page (a gate with more inputs than fit side by side) is cut at column
  * boundaries into page-wide parts, each showing the drawing at full size.
  */
-function slice(svg: string, width: number, height: number, columns: number, perPage: number): FigurePart[] {
+export function slice(svg: string, width: number, height: number, columns: number, perPage: number): FigurePart[] {
   if (columns <= perPage) return [{ svg, width, height }];
   const parts: FigurePart[] = [];
   for (let first = 0; first < columns; first += perPage) {

@@ -10,13 +10,13 @@
  */
 import type { Results } from '../../analysis/results.js';
 import { contentBox } from '../../report/paper.js';
-import { windowed } from '../../report/diagram/canvas.js';
+import { slice } from '../../report/diagram/index.js';
 import { drawFigure } from '../../report/diagram/draw.js';
-import { G, capacityFor, layoutTree } from '../../report/diagram/layout.js';
+import { capacityFor, layoutTree } from '../../report/diagram/layout.js';
 import { drawLegend } from '../../report/diagram/legend.js';
 import { diagramModel, type DiagramModel, type DiagramNode } from '../../report/diagram/model.js';
 import { partition } from '../../report/diagram/partition.js';
-import type { FigureBlock, FigurePart, Paper } from '../../report/view.js';
+import type { FigureBlock, Paper } from '../../report/view.js';
 import type { Comparison } from '../compare.js';
 
 export type Mark = 'NEW' | 'RE-WIRED' | 'CHANGED' | 'REMOVED';
@@ -169,15 +169,4 @@ function subtreeFigures(results: Results, marks: Map<string, Mark>, root: string
 function gateHasInput(model: DiagramModel, gate: string, id: string): boolean {
   const n = model.node(gate);
   return n.kind === 'gate' && n.inputs.includes(id);
-}
-
-/** A figure wider than a page is cut at column boundaries into page-wide parts (as the appendix does). */
-function slice(svg: string, width: number, height: number, columns: number, perPage: number): FigurePart[] {
-  if (columns <= perPage) return [{ svg, width, height }];
-  const parts: FigurePart[] = [];
-  for (let first = 0; first < columns; first += perPage) {
-    const count = Math.min(perPage, columns - first);
-    parts.push({ svg: windowed(svg, first * G.column, count * G.column + 2 * G.margin, height), width: count * G.column + 2 * G.margin, height });
-  }
-  return parts;
 }
