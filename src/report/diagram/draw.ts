@@ -76,27 +76,38 @@ function drawPlaced(input: DrawInput, edges: D3Selection, nodes: D3Selection, p:
         ? 'P = —'
         : `P = ${formatProbability(node.probability)}`;
   drawBox(g, p.x, p.y, p.node.id, title, probability);
-  line(edges, p.x, boxBottom, p.x, symbolTop);
 
   const sw = G.symbolWidth;
   const sh = G.symbolHeight;
+  // A leaf's symbol hangs under its box; a stacked input's sits left of the box, centred on it,
+  // and its note (page reference, CCF group) goes under the box instead of under the symbol.
+  const sx = p.stacked ? p.stacked.symbolX : p.x;
+  const leafTop = p.stacked ? p.y + G.boxHeight / 2 - 11 : symbolTop;
+  const noteY = p.stacked ? boxBottom + 8 : undefined;
+  if (p.stacked) {
+    // Half the symbol's width at the height of its centre, where the tick and the link meet it.
+    const half = kind === 'transfer' ? 5.5 : node.kind === 'event' && node.house ? sw * 0.4 : 11;
+    const mid = p.y + G.boxHeight / 2;
+    line(edges, p.stacked.busX, mid, sx - half, mid);
+    line(edges, sx + half, mid, p.x - G.boxWidth / 2, mid);
+  } else line(edges, p.x, boxBottom, p.x, symbolTop);
   if (kind === 'transfer') {
     const target = input.continuation(p.node.id);
     g.attr('data-target', target.anchor);
-    shape(g, trianglePath(p.x, symbolTop, sw * 0.85, sh * 0.8), '#ffffff');
-    text(g, p.x, symbolTop + sh * 0.8 + 9, `see ${target.number.toLowerCase()}`, 6.8, { italic: true, fill: ACCENT });
+    shape(g, trianglePath(sx, leafTop + 1, sw * 0.85, sh * 0.8), '#ffffff');
+    text(g, p.x, noteY ?? symbolTop + sh * 0.8 + 9, `see ${target.number.toLowerCase()}`, 6.8, { italic: true, fill: ACCENT });
     return;
   }
   if (node.kind === 'missing') {
-    shape(g, diamondPath(p.x, symbolTop, sw, sh * 0.9), '#ffffff');
+    shape(g, diamondPath(sx, leafTop, p.stacked ? 22 : sw, p.stacked ? 22 : sh * 0.9), '#ffffff');
     return;
   }
   if (node.kind === 'event') {
-    if (node.house) shape(g, housePath(p.x, symbolTop, sw * 0.8, sh * 0.85), '#ffffff');
+    if (node.house) shape(g, housePath(sx, leafTop + 1, sw * 0.8, sh * 0.85), '#ffffff');
     else
       g.append('circle')
-        .attr('cx', round(p.x))
-        .attr('cy', round(symbolTop + 11))
+        .attr('cx', round(sx))
+        .attr('cy', round(leafTop + 11))
         .attr('r', 11)
         .attr('fill', '#ffffff')
         .attr('stroke', INK)
@@ -104,11 +115,12 @@ function drawPlaced(input: DrawInput, edges: D3Selection, nodes: D3Selection, p:
     if (!node.house && node.commonCause) {
       // Marked by letters, not colour: readable in black and white.
       g.attr('data-common-cause', node.commonCause);
-      text(g, p.x, symbolTop + 13.5, 'CCF', 6.5, { weight: 'medium' });
-      text(g, p.x, symbolTop + 22 + 9, `group ${node.commonCause}`, 6.5, { italic: true });
+      text(g, sx, leafTop + 13.5, 'CCF', 6.5, { weight: 'medium' });
+      text(g, p.x, noteY ?? symbolTop + 22 + 9, `group ${node.commonCause}`, 6.5, { italic: true });
     }
     return;
   }
+  line(edges, p.x, boxBottom, p.x, symbolTop);
   // A gate: its symbol, then the bus to its inputs.
   if (node.op === 'all') shape(g, andPath(p.x, symbolTop, sw, sh), FILL_GATE);
   else if (node.op === 'not') {
@@ -123,6 +135,16 @@ function drawPlaced(input: DrawInput, edges: D3Selection, nodes: D3Selection, p:
   const symbolBottom = symbolTop + sh - (node.op === 'all' ? 0 : sh * 0.15);
   const busY = symbolTop + sh + G.busGap;
   line(edges, p.x, symbolBottom, p.x, busY);
+  if (p.children.some((c) => c.stacked)) {
+    // Stacked inputs: one vertical bus per column, down to its last input's tick (drawn with it).
+    const ends = new Map<number, number>();
+    for (const c of p.children) if (c.stacked) ends.set(c.stacked.busX, Math.max(ends.get(c.stacked.busX) ?? 0, c.y + G.boxHeight / 2));
+    const xs = [...ends.keys(), p.x];
+    line(edges, Math.min(...xs), busY, Math.max(...xs), busY);
+    for (const [x, end] of ends) line(edges, x, busY, x, end);
+    for (const c of p.children) drawPlaced(input, edges, nodes, c);
+    return;
+  }
   const first = p.children[0]!.x;
   const last = p.children[p.children.length - 1]!.x;
   if (last > first) line(edges, first, busY, last, busY);

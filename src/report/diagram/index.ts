@@ -85,8 +85,9 @@ function noteFor(t: FigureTree, model: DiagramModel, numbers: Map<string, { numb
 }
 
 /**
- * A figure wider than a page (a gate with more inputs than fit side by side) is cut at column
- * boundaries into page-wide parts, each showing the drawing at full size.
+ * A figure wider than a page (a gate with more inputs than fit side by side, and more leaf inputs
+ * than a page's stacked columns hold; see `stackFor`) is cut at column boundaries into page-wide
+ * parts, each showing the drawing at full size.
  */
 export function slice(svg: string, width: number, height: number, columns: number, perPage: number): FigurePart[] {
   if (columns <= perPage) return [{ svg, width, height }];

@@ -1,3 +1,4 @@
+import { stackFor, stackLevels, stackSpan, type Stack } from './layout.js';
 import type { DiagramModel, DiagramNode } from './model.js';
 
 /**
@@ -7,6 +8,11 @@ import type { DiagramModel, DiagramNode } from './model.js';
  * (or tops) use it (a shared subtree: drawn once, referenced by transfer), or when the figure that
  * would hold it is too wide or too deep for a page. Everywhere else a reference to such a gate is a
  * transfer symbol naming the figure that continues it.
+ *
+ * A gate of only leaf inputs, more than fit across, is stacked (the rule is at `stackFor` in
+ * layout.ts); the decision is made here, where the page capacity is known, and carried on the tree
+ * node so every layout of the tree draws it the same way. A stacked gate counts as the columns and
+ * levels its block takes.
  *
  * Pure: ids in, trees out; the drawing and the figure numbers come later.
  */
@@ -19,7 +25,7 @@ export interface Capacity {
 }
 
 export type TreeNode =
-  | { kind: 'gate'; id: string; children: TreeNode[] }
+  | { kind: 'gate'; id: string; children: TreeNode[]; stack?: Stack }
   | { kind: 'event'; id: string }
   | { kind: 'missing'; id: string }
   /** A gate drawn elsewhere: its own figure is rooted at `id`. */
@@ -58,13 +64,13 @@ export function partition(model: DiagramModel, capacity: Capacity): FigureTree[]
   const drawn = new Set<string>();
   for (let i = 0; i < order.length || adoptOrphan(); i++) {
     const root = order[i]!;
-    let tree = build(model, root, reasons);
+    let tree = build(model, root, reasons, capacity);
     // Cut the figure down until it fits; each cut makes a new figure root (possibly cut again later).
     for (;;) {
       const cut = chooseCut(tree, capacity);
       if (!cut) break;
       reasons.set(cut, 'size');
-      tree = build(model, root, reasons);
+      tree = build(model, root, reasons, capacity);
     }
     trees.set(root, tree);
     for (const id of gatesIn(tree)) drawn.add(id);
@@ -109,24 +115,39 @@ function countUses(model: DiagramModel): Map<string, number> {
   return uses;
 }
 
-function build(model: DiagramModel, root: string, roots: Map<string, unknown>): FigureTree['tree'] {
+function build(model: DiagramModel, root: string, roots: Map<string, unknown>, capacity: Capacity): FigureTree['tree'] {
   const visit = (id: string, isRoot: boolean, path: Set<string>): TreeNode => {
     const node: DiagramNode = model.node(id);
     if (node.kind !== 'gate') return { kind: node.kind, id };
     // A cycle cannot come from a valid study; drawing it as a transfer keeps the report total.
     if ((!isRoot && roots.has(id)) || path.has(id)) return { kind: 'transfer', id };
     const inner = new Set(path).add(id);
-    return { kind: 'gate', id, children: node.inputs.map((c) => visit(c, false, inner)) };
+    const children = node.inputs.map((c) => visit(c, false, inner));
+    const stack = children.every((c) => c.kind !== 'gate') ? stackFor(children.length, capacity, children.some((c) => hasNote(model, c))) : null;
+    return { kind: 'gate', id, children, ...(stack ? { stack } : {}) };
   };
   return visit(root, true, new Set()) as FigureTree['tree'];
 }
 
-export function leafCount(node: TreeNode): number {
-  return node.kind === 'gate' && node.children.length > 0 ? node.children.reduce((n, c) => n + leafCount(c), 0) : 1;
+/** A leaf drawn with a line of text under it: a transfer's "see figure", a CCF member's group. */
+function hasNote(model: DiagramModel, leaf: TreeNode): boolean {
+  if (leaf.kind === 'transfer') return true;
+  const n = model.node(leaf.id);
+  return leaf.kind === 'event' && n.kind === 'event' && !n.house && n.commonCause !== undefined;
 }
 
+/** Layout columns the subtree takes: one per leaf, or the span of a stacked block. */
+export function leafCount(node: TreeNode): number {
+  if (node.kind !== 'gate' || node.children.length === 0) return 1;
+  if (node.stack) return stackSpan(node.stack);
+  return node.children.reduce((n, c) => n + leafCount(c), 0);
+}
+
+/** Levels the subtree takes, its own included; a stacked block counts the levels it covers. */
 export function depthOf(node: TreeNode): number {
-  return node.kind === 'gate' && node.children.length > 0 ? 1 + Math.max(...node.children.map(depthOf)) : 1;
+  if (node.kind !== 'gate' || node.children.length === 0) return 1;
+  if (node.stack) return 1 + stackLevels(node.stack);
+  return 1 + Math.max(...node.children.map(depthOf));
 }
 
 /** Gates drawn in full (not as transfers) in this tree. */
@@ -144,15 +165,18 @@ export function transfers(node: TreeNode): string[] {
 
 /**
  * The gate to move to its own figure, or null if the tree fits (or cannot be made to fit by cutting:
- * a single gate with more inputs than a page is wide is sliced into parts when drawn instead).
+ * a single gate with more inputs than a page is wide, and not stacked, is sliced into parts when
+ * drawn instead).
  *
- * Too deep: the first gate (left to right) on the last allowed level that still has gate children.
+ * Too deep: the first gate (left to right) on the deepest level from which its subtree runs past
+ * the last allowed level (a gate with gate children on the last level but one, or a stacked gate
+ * whose block runs too low), so the cut keeps as much as possible in this figure.
  * Too wide: the widest non-root subtree that fits a page on its own, so each cut removes as much as
  * possible; if none fits, the widest one (it is cut again in its own figure).
  */
 function chooseCut(tree: FigureTree['tree'], capacity: Capacity): string | null {
   if (depthOf(tree) > capacity.levels) {
-    const found = firstAtDepth(tree, capacity.levels - 1, 0);
+    const found = deepestOverrun(tree, capacity.levels);
     if (found) return found;
   }
   if (leafCount(tree) <= capacity.columns) return null;
@@ -173,12 +197,14 @@ function chooseCut(tree: FigureTree['tree'], capacity: Capacity): string | null 
   return best.id;
 }
 
-function firstAtDepth(node: TreeNode, target: number, depth: number): string | null {
-  if (node.kind !== 'gate') return null;
-  if (depth === target) return node.children.some((c) => c.kind === 'gate') ? node.id : null;
-  for (const c of node.children) {
-    const found = firstAtDepth(c, target, depth + 1);
-    if (found) return found;
-  }
-  return null;
+function deepestOverrun(tree: TreeNode, levels: number): string | null {
+  let best: { id: string; level: number } | null = null;
+  const visit = (node: TreeNode, level: number) => {
+    if (node.kind !== 'gate' || node.children.length === 0) return;
+    // Only a non-root gate can be cut, and only where a transfer in its place still fits.
+    if (level >= 1 && level <= levels - 1 && level + depthOf(node) > levels && (!best || level > best.level)) best = { id: node.id, level };
+    for (const c of node.children) visit(c, level + 1);
+  };
+  visit(tree, 0);
+  return best === null ? null : (best as { id: string }).id;
 }
