@@ -9,7 +9,5 @@ export function printWarnings(warnings: Warning[], io: Io): void {
   }
 }
 
-/** A probability for the terminal: three significant figures, exponent form. */
-export function formatProbability(p: number): string {
-  return p === 0 ? '0' : p.toExponential(2).replace('e', 'E');
-}
+// Probabilities print on the terminal exactly as the appendix prints them.
+export { formatProbability } from '../report/format.js';
