@@ -39,7 +39,7 @@ const STAGES: Stage[] = [fitsStage, driversStage, sharedCauseStage];
 export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
   const model = buildLogicModel(study);
   const base = baseCase();
-  const evaluation = evaluateBase(study, base);
+  const evaluation = asInputError(() => evaluateEvents(study, base));
   // Undefined when the diagram outgrew max_nodes and the study allows cut-set bounds instead.
   const compiled = compileBaseCase(study, model, base.switches);
   const tops = compiled ? quantifyTops(study, model, compiled, evaluation.probability) : boundTops(study, model, base.switches, evaluation.probability);
@@ -64,14 +64,14 @@ export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
     return results;
   }
   const ctx: AnalysisContext = { study, model, compiled, base: evaluation, results, options };
-  for (const stage of STAGES) Object.assign(results, stage(ctx));
+  for (const stage of STAGES) Object.assign(results, asInputError(() => stage(ctx)));
   return results;
 }
 
-/** The base case's events; a model that cannot evaluate the study's own numbers is an input error. */
-function evaluateBase(study: Study, base: ReturnType<typeof baseCase>): EventEvaluation {
+/** A model that cannot evaluate the study's numbers (its own, or ones it samples) is an input error. */
+function asInputError<T>(fn: () => T): T {
   try {
-    return evaluateEvents(study, base);
+    return fn();
   } catch (err) {
     if (err instanceof EventProbabilityError) throw err.toStudyError();
     throw err;

@@ -12,8 +12,9 @@
  * suite holds it equal to `evaluateEvents` value for value.
  */
 import { modelProbability, type ModelContext } from '../reliability/models/index.js';
-import type { ModelKind, Study } from '../study/types.js';
+import type { BasicEvent, ModelKind, Study } from '../study/types.js';
 import { ageInCase, fieldValue, type Case } from './case.js';
+import { EventProbabilityError } from './event-probability.js';
 
 interface Group {
   model: ModelKind;
@@ -25,8 +26,8 @@ interface Group {
   context: ModelContext;
   /** Events (indices) that share this group's probability. */
   events: Int32Array;
-  /** The first event's id, for messages. */
-  id: string;
+  /** The first event of the group, for messages. */
+  event: BasicEvent;
 }
 
 export class EventPlan {
@@ -71,7 +72,7 @@ export class EventPlan {
       if (age !== undefined) context.ageYears = age;
       if (on !== undefined) context.on = on;
       if (varyingFields.length === 0) {
-        this.fixedProbability[i] = checked(e.id, e.model, modelProbability(e.model, fields, context), fields);
+        this.fixedProbability[i] = checked(e, modelProbability(e.model, fields, context), fields);
         return;
       }
       signature += `|age=${age}|on=${on}`;
@@ -88,7 +89,7 @@ export class EventPlan {
           varyingSources: Int32Array.from(varyingSources),
           context,
           events: new Int32Array(0),
-          id: e.id,
+          event: e,
         },
         events: [i],
       });
@@ -115,7 +116,7 @@ export class EventPlan {
       const names = g.varyingFields;
       const sources = g.varyingSources;
       for (let k = 0; k < names.length; k++) f[names[k]!] = values[sources[k]!]!;
-      const q = checked(g.id, g.model, modelProbability(g.model, f, g.context), f);
+      const q = checked(g.event, modelProbability(g.model, f, g.context), f);
       const ev = g.events;
       for (let k = 0; k < ev.length; k++) out[ev[k]!] = q;
     }
@@ -123,8 +124,9 @@ export class EventPlan {
   }
 }
 
-function checked(id: string, model: string, q: number, fields: Record<string, number>): number {
-  if (!(q >= 0 && q <= 1)) throw new Error(`event '${id}' (${model}) gave probability ${q} from ${JSON.stringify(fields)}`);
+/** The same check, and the same error, as evaluateEvents. */
+function checked(event: BasicEvent, q: number, fields: Record<string, number>): number {
+  if (!(q >= 0 && q <= 1)) throw new EventProbabilityError(event, q, { ...fields });
   return q;
 }
 

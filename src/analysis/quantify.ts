@@ -6,6 +6,7 @@
 import { compile, cutSetBounds, importance, minimalCutSets, NodeBudgetExceeded, probability, ProbabilityEvaluator, type CompiledLogic } from '../logic/index.js';
 import { ExpansionBudgetExceeded, topDownCutSets } from '../logic/cut-sets-topdown.js';
 import { StudyError } from '../study/errors.js';
+import { reachable } from '../study/reach.js';
 import type { Study } from '../study/types.js';
 import type { LogicModel } from './logic-model.js';
 import type { CutSet, Importance, TopResult } from './results.js';
@@ -123,16 +124,8 @@ function gateProbabilities(study: Study, model: LogicModel, compiled: CompiledLo
 
 /** The gates under a top (its own gate included), in study order. */
 function gatesUnder(study: Study, gate: string): string[] {
-  const byId = new Map(study.gates.map((g) => [g.id, g]));
-  const seen = new Set<string>();
-  const stack = [gate];
-  while (stack.length) {
-    const id = stack.pop()!;
-    if (seen.has(id) || !byId.has(id)) continue;
-    seen.add(id);
-    stack.push(...byId.get(id)!.inputs);
-  }
-  return study.gates.map((g) => g.id).filter((id) => seen.has(id));
+  const under = reachable(study.gates, [gate]);
+  return study.gates.map((g) => g.id).filter((id) => under.has(id));
 }
 
 export function quantifyTops(study: Study, model: LogicModel, compiled: CompiledLogic, p: Float64Array): TopResult[] {

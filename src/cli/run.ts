@@ -13,9 +13,6 @@ import { writeOutputs, type OutputFile } from './outputs.js';
 import { formatProbability, printWarnings } from './print.js';
 import { createProgress } from './progress.js';
 
-const FORMATS = OUTPUT_FORMATS;
-type Format = OutputFormat;
-
 const spec: CommandSpec = {
   usage: 'STUDY [--out DIR] [--format html,pdf,json,csv] [--paper a4|letter] [--quiet]',
   summary: 'quantify a study and write its appendix (appendix.html, appendix.pdf, results.json, cutsets.csv)',
@@ -28,14 +25,14 @@ const spec: CommandSpec = {
   positionals: ['STUDY'],
 };
 
-export function parseFormats(text: string | undefined): Set<Format> {
-  if (text === undefined) return new Set(FORMATS);
+export function parseFormats(text: string | undefined): Set<OutputFormat> {
+  if (text === undefined) return new Set(OUTPUT_FORMATS);
   const asked = text.split(',').map((s) => s.trim().toLowerCase()).filter(Boolean);
-  const bad = asked.filter((f) => !(FORMATS as readonly string[]).includes(f));
+  const bad = asked.filter((f) => !(OUTPUT_FORMATS as readonly string[]).includes(f));
   if (bad.length || asked.length === 0) {
-    throw new StudyError(`unknown format${bad.length > 1 ? 's' : ''} '${bad.join(', ') || text}'`, undefined, `a comma-separated list of ${FORMATS.join(', ')}`);
+    throw new StudyError(`unknown format${bad.length > 1 ? 's' : ''} '${bad.join(', ') || text}'`, undefined, `a comma-separated list of ${OUTPUT_FORMATS.join(', ')}`);
   }
-  return new Set(asked as Format[]);
+  return new Set(asked as OutputFormat[]);
 }
 
 export function parsePaper(text: string | undefined): 'a4' | 'letter' {

@@ -2,6 +2,7 @@
  * Lint: things that are allowed but suspicious. Each warning is printed by `check` and `run` and
  * listed in the appendix; none stops a run.
  */
+import { reachable } from './reach.js';
 import type { Study, Warning } from './types.js';
 
 /** Weibull shapes outside this band are rare for mechanical and electrical equipment (common practice, no source). */
@@ -16,17 +17,9 @@ export function lint(study: Study): Warning[] {
   for (const e of study.events) {
     if (!used.has(e.id)) out.push({ code: 'unused-event', message: `basic event '${e.id}' is not an input of any gate`, at: e.at });
   }
-  const reachable = new Set<string>();
-  const byId = new Map(study.gates.map((g) => [g.id, g]));
-  const stack = study.tops.map((t) => t.gate);
-  while (stack.length) {
-    const id = stack.pop()!;
-    if (reachable.has(id)) continue;
-    reachable.add(id);
-    for (const i of byId.get(id)?.inputs ?? []) stack.push(i);
-  }
+  const underTops = reachable(study.gates, study.tops.map((t) => t.gate));
   for (const g of study.gates) {
-    if (!reachable.has(g.id)) out.push({ code: 'unreachable-gate', message: `gate '${g.id}' is not under any top event`, at: g.at });
+    if (!underTops.has(g.id)) out.push({ code: 'unreachable-gate', message: `gate '${g.id}' is not under any top event`, at: g.at });
   }
   for (const p of study.parameters) {
     if (!p.source) out.push({ code: 'unsourced', message: `'${p.key}' = ${p.written} cites no source`, at: p.at });

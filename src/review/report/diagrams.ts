@@ -17,6 +17,7 @@ import { drawLegend } from '../../report/diagram/legend.js';
 import { diagramModel, type DiagramModel, type DiagramNode } from '../../report/diagram/model.js';
 import { partition } from '../../report/diagram/partition.js';
 import type { FigureBlock, Paper } from '../../report/view.js';
+import { reachable } from '../../study/reach.js';
 import type { Comparison } from '../compare.js';
 
 export type Mark = 'NEW' | 'RE-WIRED' | 'CHANGED' | 'REMOVED';
@@ -85,35 +86,14 @@ function subtreeRoots(results: Results, marks: Map<string, Mark>): string[] {
     if (marks.has(g.id)) candidates.add(g.id);
     else if (g.inputs.some((i) => !gates.has(i) && marks.has(i))) candidates.add(g.id);
   }
-  const below = (id: string, seen = new Set<string>()): Set<string> => {
-    const g = gates.get(id);
-    if (!g || seen.has(id)) return seen;
-    for (const i of g.inputs) {
-      if (gates.has(i) && !seen.has(i)) {
-        seen.add(i);
-        below(i, seen);
-      }
-    }
-    return seen;
-  };
   const inside = new Set<string>();
-  for (const r of candidates) for (const d of below(r)) if (candidates.has(d)) inside.add(d);
+  for (const r of candidates) for (const d of reachable(results.logic.gates, [r])) if (d !== r && candidates.has(d)) inside.add(d);
   // A gate added in NEW sits under its re-wired parent; its own subtree is drawn there.
   return results.logic.gates.map((g) => g.id).filter((id) => candidates.has(id) && !inside.has(id));
 }
 
 function hasRemovedBelow(results: Results, marks: Map<string, Mark>, root: string): boolean {
-  const gates = new Map(results.logic.gates.map((g) => [g.id, g]));
-  const stack = [root];
-  const seen = new Set<string>();
-  while (stack.length) {
-    const id = stack.pop()!;
-    if (seen.has(id)) continue;
-    seen.add(id);
-    if (marks.get(id) === 'REMOVED') return true;
-    for (const i of gates.get(id)?.inputs ?? []) stack.push(i);
-  }
-  return false;
+  return [...reachable(results.logic.gates, [root])].some((id) => marks.get(id) === 'REMOVED');
 }
 
 /** The diagram model of one subtree: its gates only, titles carrying the marks, no top-event box. */
