@@ -10,6 +10,8 @@ export interface OptionSpec {
   help: string;
   /** Placeholder in the help text, e.g. DIR. */
   value?: string;
+  /** May be given more than once (its value is then a list). */
+  multiple?: boolean;
 }
 
 export interface CommandSpec {
@@ -35,9 +37,9 @@ export function parseCommandArgs(
   name: string,
   spec: CommandSpec,
   argv: string[],
-): { help: true } | { help: false; values: Record<string, string | boolean | undefined>; positionals: string[] } {
-  const options: Record<string, { type: 'string' | 'boolean' }> = { help: { type: 'boolean' } };
-  for (const [flag, o] of Object.entries(spec.options)) options[flag] = { type: o.type };
+): { help: true } | { help: false; values: Record<string, string | boolean | string[] | undefined>; positionals: string[] } {
+  const options: Record<string, { type: 'string' | 'boolean'; multiple?: boolean }> = { help: { type: 'boolean' } };
+  for (const [flag, o] of Object.entries(spec.options)) options[flag] = { type: o.type, ...(o.multiple ? { multiple: true } : {}) };
   let parsed;
   try {
     parsed = parseArgs({ args: argv, options, allowPositionals: true, strict: true });
@@ -53,5 +55,5 @@ export function parseCommandArgs(
       `faultbook ${name} ${spec.usage}`,
     );
   }
-  return { help: false, values: parsed.values as Record<string, string | boolean | undefined>, positionals: parsed.positionals };
+  return { help: false, values: parsed.values as Record<string, string | boolean | string[] | undefined>, positionals: parsed.positionals };
 }

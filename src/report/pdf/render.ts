@@ -47,6 +47,26 @@ function prepare(): void {
   pdfmake.addTableLayouts(LAYOUTS);
 }
 
+/**
+ * PDF/A-2b (ISO 19005-2, level B: the pages look the same in decades). pdfmake hands these to its
+ * PDF library, which then writes the XMP metadata with the pdfaid part/conformance declaration and
+ * an sRGB output intent whose ICC profile (sRGB2014, International Color Consortium) ships inside
+ * that library, so it is embedded byte for byte the same every run. Fonts are embedded already
+ * (Roboto subsets). `tagged` is left off on purpose: pdfmake draws text without marked content, so
+ * a "tagged" file would carry an empty structure tree and promise assistive technology headings
+ * and tables it does not hold. See README "For agencies" for what is and is not reached.
+ */
+const ARCHIVAL = { version: '1.7', subset: 'PDF/A-2b', displayTitle: true } as const;
+
+/**
+ * The PDF library copies metadata strings into the XMP packet without XML escaping, so an `&` or
+ * `<` in a title would make the packet ill-formed XML; such characters are written as their
+ * full-width look-alikes in the metadata only (the pages show the text as written).
+ */
+function xmpSafe(text: string): string {
+  return text.replace(/&/g, '\uff06').replace(/</g, '\uff1c').replace(/>/g, '\uff1e');
+}
+
 /** The study's date as a fixed instant (midnight UTC), so metadata never depends on the clock or zone. */
 export function studyDate(iso: string): Date {
   const m = /^(\d{4})(?:-(\d{2}))?(?:-(\d{2}))?/.exec(iso);
@@ -67,18 +87,20 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
   return {
     pageSize: pdfPageSize(view.paper),
     pageMargins: [left, top, right, bottom],
+    // No modDate: PDF/A wants every Info entry mirrored in the XMP metadata, and the PDF library
+    // writes no xmp:ModifyDate. The creation date alone is the study's date.
     info: {
-      title: view.meta.title,
-      author: view.meta.author,
-      subject: view.meta.subject,
-      keywords: view.meta.keywords,
-      creator: view.meta.creator,
-      producer: view.meta.creator,
+      title: xmpSafe(view.meta.title),
+      author: xmpSafe(view.meta.author),
+      subject: xmpSafe(view.meta.subject),
+      keywords: xmpSafe(view.meta.keywords),
+      creator: xmpSafe(view.meta.creator),
+      producer: xmpSafe(view.meta.creator),
       creationDate: date,
-      modDate: date,
     },
     language: view.language,
     compress: true,
+    ...ARCHIVAL,
     ...(view.cover.draft
       ? { watermark: { text: statusText, color: '#a11d21', opacity: 0.07, bold: true, fontSize: 110 } }
       : {}),
