@@ -133,6 +133,8 @@ export function readTar(tar: Buffer, limits: TarReadLimits = DEFAULT_LIMITS): Ta
   let offset = 0;
   /** A path given by a GNU long-name entry or a pax header, for the header that follows. */
   let longPath: string | undefined;
+  /** Whether the last header was an extended one (GNU long name, pax), which must be followed by an entry. */
+  let extended = false;
   for (;;) {
     if (offset + BLOCK > tar.length) throw new ArchiveFormatError('the tar data ends without its end-of-archive blocks (truncated?)');
     const block = tar.subarray(offset, offset + BLOCK);
@@ -147,6 +149,7 @@ export function readTar(tar: Buffer, limits: TarReadLimits = DEFAULT_LIMITS): Ta
     const prefix = magic === 'ustar\u0000' ? cString(block, 345, 155) : '';
     const rawPath = longPath ?? (prefix ? `${prefix}/${name}` : name);
     longPath = undefined;
+    extended = false;
     const size = parseOctal(block, 124, 12, 'size');
     const type = String.fromCharCode(block[156]!);
     offset += BLOCK;
@@ -161,9 +164,11 @@ export function readTar(tar: Buffer, limits: TarReadLimits = DEFAULT_LIMITS): Ta
     if (type === 'L') {
       if (size > 4096) throw new ArchiveFormatError(`a long-name entry of ${size} bytes at byte ${offset - BLOCK}: more than a path needs`);
       longPath = cString(data, 0, data.length);
+      extended = true;
     } else if (type === 'x') {
       if (size > 65536) throw new ArchiveFormatError(`a pax header of ${size} bytes at byte ${offset - BLOCK}: more than a path needs`);
       longPath = paxPath(data, rawPath);
+      extended = true;
     } else if (type === 'g' || type === 'K') {
       throw new ArchiveFormatError(`entry '${rawPath}' is a ${type === 'g' ? 'global pax header' : 'GNU long link name'} (type '${type}'), which study archives never need`);
     } else if (type === '5') {
@@ -186,7 +191,7 @@ export function readTar(tar: Buffer, limits: TarReadLimits = DEFAULT_LIMITS): Ta
     }
     offset = dataEnd + ((BLOCK - (size % BLOCK)) % BLOCK);
   }
-  if (longPath !== undefined) throw new ArchiveFormatError(`a long-name header at the end names '${longPath}' but no entry follows it (truncated?)`);
+  if (extended) throw new ArchiveFormatError('the archive ends with an extended header that no entry follows (truncated?)');
   refuseFileFolderClashes(files, folders);
   return files;
 }
