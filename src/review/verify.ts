@@ -144,7 +144,14 @@ export async function verifyArchive(bytes: Buffer, options: VerifyOptions = {}):
   const lock = lockfileHash();
   if (manifest.tool.lockfile_sha256 !== lock) notes.push(`the tool's package-lock.json differs from the one the archive was made with (dependency versions may differ)`);
 
-  const study = readArchivedStudy(archived, differences);
+  let study: Study | undefined;
+  try {
+    study = readArchivedStudy(archived, differences);
+  } finally {
+    // A signal that came while the study was unpacked and read is handled now; the long work
+    // below runs with the default handlers, so Ctrl-C stops it at once (nothing is left on disk).
+    await releaseSignalHandlers();
+  }
   let numbersCompared = 0;
   const rerendered: string[] = [];
   if (study) {
@@ -193,9 +200,6 @@ function readArchivedStudy(archived: TarFile[], differences: Difference[]): Stud
 
 /** Recompute from the archived inputs and re-render; push what disagrees; return how many numbers were compared. */
 async function recompute(study: Study, byPath: Map<string, TarFile>, manifest: Manifest, differences: Difference[], notes: string[], rerendered: string[]): Promise<number> {
-  // A signal that came while the study was unpacked and read is handled now; the long work below
-  // runs with the default handlers, so Ctrl-C stops it at once (nothing is left on disk).
-  await releaseSignalHandlers();
   const sameTool = manifest.tool.version === toolVersion;
   let results: Results;
   try {
