@@ -6,6 +6,7 @@
  * ModDate without xmp:ModifyDate), well-formed metadata, and byte-identical reruns.
  */
 import { execFileSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
 import { readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
@@ -91,6 +92,12 @@ describe.runIf(ready)('appendix.pdf as PDF/A-2b', () => {
     const require = createRequire(import.meta.url);
     const pdfkitDir = dirname(require.resolve('pdfkit/package.json', { paths: [dirname(require.resolve('pdfmake/package.json'))] }));
     expect(profile.equals(readFileSync(join(pdfkitDir, 'js', 'data', 'sRGB_IEC61966_2_1.icc')))).toBe(true);
+    // Unaltered: its profile ID (bytes 84–99) is the MD5 of the profile with the flags, rendering
+    // intent and profile ID fields zeroed (ICC.1:2010 §7.2.18, from memory).
+    const zeroed = Buffer.from(profile);
+    zeroed.fill(0, 44, 48).fill(0, 64, 68).fill(0, 84, 100);
+    expect(createHash('md5').update(zeroed).digest('hex')).toBe(profile.toString('hex', 84, 100));
+    expect(profile.toString('latin1')).toContain('sRGB');
   });
 
   it('does not claim a tag structure it does not have', () => {
