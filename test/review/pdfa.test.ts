@@ -40,7 +40,7 @@ describe.runIf(ready)('appendix.pdf as PDF/A-2b', () => {
     writeFileSync(join(study, 'study.yaml'), yaml);
     const out = tempDir('faultbook-pdfa-');
     made.push(out);
-    const r = await faultbook('run', study, '--out', out, '--format', 'pdf');
+    const r = await faultbook('run', study, '--out', out, '--format', 'html,pdf');
     expect(r.code).toBe(0);
     pdf = join(out, 'appendix.pdf');
     bytes = readFileSync(pdf);
@@ -100,12 +100,35 @@ describe.runIf(ready)('appendix.pdf as PDF/A-2b', () => {
     expect(profile.toString('latin1')).toContain('sRGB');
   });
 
-  it('does not claim a tag structure it does not have', () => {
-    // pdfmake marks no content, so the file must not say "Tagged: yes" unless a structure tree is there.
+  it('is tagged, and its structure tree holds the section headings, the tables with header cells, and the figures with their captions as alternative text', () => {
     const info = execFileSync(PDFINFO, [pdf], { encoding: 'utf8' });
-    const tagged = /^Tagged:\s+yes$/m.test(info);
-    const structure = execFileSync(PDFINFO, ['-struct', pdf], { encoding: 'utf8' }).trim();
-    expect(tagged ? structure.length > 0 : true).toBe(true);
+    expect(info).toMatch(/^Tagged:\s+yes$/m);
+    const tree = execFileSync(PDFINFO, ['-struct-text', pdf], { encoding: 'utf8' });
+    const lines = tree.split('\n');
+    const textAfter = (i: number) => lines.slice(i + 1).find((l) => l.trim().startsWith('"'))?.trim().replace(/^"|"$/g, '') ?? '';
+    // Every numbered section heading of the HTML appendix (made from the same view) is an H2 of the
+    // PDF's structure, in the same order.
+    const html = readFileSync(join(dirname(pdf), 'appendix.html'), 'utf8');
+    const htmlHeadings = [...html.matchAll(/<h2><span class="num">(\d+)<\/span>([^<]*)<\/h2>/g)].map((m) => `${m[1]} ${m[2]}`);
+    expect(htmlHeadings.length).toBeGreaterThan(3);
+    const h2 = lines.flatMap((l, i) => (/^\s*H2\b/.test(l) ? [textAfter(i)] : []));
+    const sectionHeadings = h2.filter((t) => /^\d+\s/.test(t)).map((t) => t.replace(/\s+/g, ' '));
+    expect(sectionHeadings).toEqual(htmlHeadings.map((t) => t.replace(/&amp;/g, '&')));
+    // Tables: a header row of TH cells scoped to their columns, then rows of TD.
+    expect(tree).toMatch(/Table \(block\)\n +TR\n +TH:\n +\/Scope \/(Column|Row)/);
+    expect(tree).toContain('"Top event"');
+    expect(lines.filter((l) => /^\s*TD\b/.test(l)).length).toBeGreaterThan(10);
+    // Figures carry their caption as /Alt (read from the file: pdfinfo does not print it).
+    // Literal strings, ASCII or UTF-16BE with its byte-order mark (PDF 1.7 §7.9.2.2).
+    const alts = [...bytes.toString('latin1').matchAll(/\/S \/Figure\s*\/Alt \(((?:[^()\\]|\\.)*)\)/g)].map((m) => {
+      const raw = Buffer.from(m[1]!.replace(/\\(.)/g, '$1'), 'latin1');
+      return raw[0] === 0xfe && raw[1] === 0xff ? raw.subarray(2).swap16().toString('utf16le') : raw.toString('latin1');
+    });
+    expect(alts.length).toBeGreaterThan(0);
+    for (const alt of alts) expect(alt).toMatch(/^Figure \d/);
+    // Page furniture (running header and footer) is an artifact, not text of the structure.
+    expect(tree).not.toContain('Page 2 of');
+    expect(execFileSync('pdftotext', [pdf, '-'], { encoding: 'utf8' })).toContain('Page 2 of');
   });
 
   it('is byte-identical when rendered again', async () => {

@@ -4,6 +4,7 @@ import { FONT_FILES } from '../assets.js';
 import { PAGES, contentBox, pdfPageSize } from '../paper.js';
 import type { Appendix, Block, CalloutBlock, FigureBlock, KeyValueBlock, PreBlock, Run, Section, TableBlock } from '../view.js';
 import { markdownToPdf } from './markdown.js';
+import { installTagging, markStructure } from './tagging.js';
 
 /**
  * The appendix as PDF through pdfmake: embedded Roboto, a bookmark (outline) entry per section and
@@ -31,7 +32,9 @@ const TONE: Record<CalloutBlock['tone'], { edge: string; fill: string }> = {
 
 export async function renderPdf(view: Appendix): Promise<Buffer> {
   prepare();
-  const doc = pdfmake.createPdf(documentDefinition(view));
+  const definition = documentDefinition(view);
+  markStructure(definition as Parameters<typeof markStructure>[0]);
+  const doc = pdfmake.createPdf(definition);
   return doc.getBuffer();
 }
 
@@ -45,6 +48,7 @@ function prepare(): void {
   pdfmake.setUrlAccessPolicy(() => false);
   pdfmake.setLocalAccessPolicy((path) => allowed.has(path));
   pdfmake.addTableLayouts(LAYOUTS);
+  installTagging();
 }
 
 /**
@@ -52,11 +56,10 @@ function prepare(): void {
  * PDF library, which then writes the XMP metadata with the pdfaid part/conformance declaration and
  * an sRGB output intent whose ICC profile (sRGB2014, International Color Consortium) ships inside
  * that library, so it is embedded byte for byte the same every run. Fonts are embedded already
- * (Roboto subsets). `tagged` is left off on purpose: pdfmake draws text without marked content, so
- * a "tagged" file would carry an empty structure tree and promise assistive technology headings
- * and tables it does not hold. See README "For agencies" for what is and is not reached.
+ * (Roboto subsets). `tagged` asks for MarkInfo and a structure tree; tagging.ts fills the tree
+ * (headings, tables, figures), which pdfmake alone would leave empty.
  */
-const ARCHIVAL = { version: '1.7', subset: 'PDF/A-2b', displayTitle: true } as const;
+const ARCHIVAL = { version: '1.7', subset: 'PDF/A-2b', tagged: true, displayTitle: true } as const;
 
 /**
  * The PDF library copies metadata strings into the XMP packet without XML escaping, so an `&` or
