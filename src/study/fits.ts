@@ -12,7 +12,7 @@ export type ReadText = (rel: string, at: Pos) => string;
 export function runFit(fit: FitSpec, readText: ReadText): WeibullFit {
   if (fit.result) return fit.result;
   const text = readText(fit.data, fit.at);
-  const records = parseLifeData(text, fit.data, { lifeUnit: fit.lifeUnit });
+  const records = parseLifeData(text, fit.data, { ...(fit.lifeUnit !== undefined ? { lifeUnit: fit.lifeUnit } : {}), unitOption: `'life_unit: h' (or years, days…) on fit '${fit.id}'` });
   const data = fitData(records, fit.group);
   try {
     fit.result = fitWeibull(data, { method: fit.method, threeParameter: fit.threeParameter, confidence: fit.confidence });

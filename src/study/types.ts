@@ -223,8 +223,8 @@ export interface FitSpec {
   method: 'mle' | 'rank';
   /** Also fit a location (failure-free time) parameter. */
   threeParameter: boolean;
-  /** Unit of the `life` column when it is a bare number (default years). */
-  lifeUnit: string;
+  /** Unit of bare numbers in the `life` column (`life_unit:`); absent when the file states it or every life has its own. */
+  lifeUnit?: string;
   /** Confidence level for the bounds shown, e.g. 0.9. */
   confidence: number;
   at: Pos;
