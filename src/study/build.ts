@@ -425,7 +425,7 @@ function readScenario(
     if (!known.includes(field)) throw new StudyError(`scenario '${id}' sets '${key}', but '${owner}' has no '${field}'`, kAt, `one of: ${known.map((f) => `${owner}.${f}`).join(', ')}`);
     const quantity = quantityOfField(field);
     const vAt = file.at(['scenarios', id, 'set', key]);
-    const q = readQuantity(value, quantity, vAt, `scenario '${id}' ${key}`, field);
+    const q = readQuantity(value, quantity, vAt, `scenario '${id}' ${key}`, field, file.sourceAt?.(['scenarios', id, 'set', key]));
     checkDomain(field, quantity, q.value, vAt, `scenario '${id}' ${key}`, q.written);
     s.set.push({ key, value: q.value, written: q.written, at: vAt });
   }

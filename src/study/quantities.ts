@@ -70,7 +70,9 @@ export function unitSuggestions(written: string, quantity: 'duration' | 'rate', 
  * written. A duration or rate needs its unit: a bare number is refused with the likely units for
  * `field` (the model field, e.g. `repair`) suggested.
  */
-export function readQuantity(raw: unknown, quantity: Quantity, at: Pos, what: string, field?: string): { value: number; written: string } {
+export function readQuantity(raw: unknown, quantity: Quantity, at: Pos, what: string, field?: string, source?: string): { value: number; written: string } {
+  // A YAML number arrives parsed (2e-3 → 0.002); messages and reports show the text as written.
+  if (typeof raw === 'number' && source !== undefined && Number(source) === raw) raw = source;
   if (quantity === 'duration' || quantity === 'rate') {
     if (typeof raw !== 'number' && typeof raw !== 'string') throw new StudyError(`${what} must be text with a unit`, at, EXPECTED[quantity]);
     const r = quantity === 'duration' ? parseDuration(raw) : parseRate(raw);
@@ -124,7 +126,7 @@ export function readParameter(raw: unknown, ctx: ParameterContext): Parameter {
   const what = `'${ctx.owner}.${ctx.field}'`;
   const base = { key: `${ctx.owner}.${ctx.field}`, owner: ctx.owner, ownerKind: ctx.ownerKind, field: ctx.field, quantity, at } as const;
   if (typeof raw !== 'object' || raw === null) {
-    const q = readQuantity(raw, quantity, at, what, ctx.field);
+    const q = readQuantity(raw, quantity, at, what, ctx.field, ctx.file.sourceAt?.(ctx.path));
     checkDomain(ctx.field, quantity, q.value, at, what, q.written);
     return { ...base, value: q.value, written: q.written, ...(ctx.defaultSource ? { source: ctx.defaultSource } : {}) };
   }
@@ -134,7 +136,7 @@ export function readParameter(raw: unknown, ctx: ParameterContext): Parameter {
   if (obj.fit !== undefined) {
     q = ctx.fitted(String(obj.fit), ctx.field, ctx.file.at([...ctx.path, 'fit']));
   } else if (obj.value !== undefined) {
-    q = readQuantity(obj.value, quantity, ctx.file.at([...ctx.path, 'value']), what, ctx.field);
+    q = readQuantity(obj.value, quantity, ctx.file.at([...ctx.path, 'value']), what, ctx.field, ctx.file.sourceAt?.([...ctx.path, 'value']));
   } else {
     throw new StudyError(`${what} has neither 'value' nor 'fit'`, at, `'value: …' (${EXPECTED[quantity]}) or 'fit: <fit id>'`);
   }
@@ -148,7 +150,7 @@ export function readParameter(raw: unknown, ctx: ParameterContext): Parameter {
     const rangeAt = ctx.file.at([...ctx.path, 'range']);
     const end = (i: 0 | 1, name: string): number => {
       const endAt = ctx.file.at([...ctx.path, 'range', i]);
-      const r = readQuantity((obj.range as unknown[])[i], quantity, endAt, `${what} range ${name} end`, ctx.field);
+      const r = readQuantity((obj.range as unknown[])[i], quantity, endAt, `${what} range ${name} end`, ctx.field, ctx.file.sourceAt?.([...ctx.path, 'range', i]));
       checkDomain(ctx.field, quantity, r.value, endAt, `${what} range ${name} end`, r.written);
       return r.value;
     };
@@ -225,8 +227,10 @@ function readUncertainty(raw: Record<string, Record<string, unknown>>, quantity:
   const path = [...ctx.path, 'uncertainty', kind];
   const num = (name: string, q: Quantity = quantity): number => {
     const at = ctx.file.at([...path, name]);
-    if (q === quantity) checkSameUnitKind(body[name], quantity, at, what, name, pointWritten);
-    return readQuantity(body[name], q, at, `${what} uncertainty ${name}`, ctx.field).value;
+    const source = ctx.file.sourceAt?.([...path, name]);
+    const raw = typeof body[name] === 'number' && source !== undefined && Number(source) === body[name] ? source : body[name];
+    if (q === quantity) checkSameUnitKind(raw, quantity, at, what, name, pointWritten);
+    return readQuantity(raw, q, at, `${what} uncertainty ${name}`, ctx.field).value;
   };
   const at = ctx.file.at(path);
   const positive = (name: string, v: number) => {

@@ -17,6 +17,8 @@ export interface YamlFile {
   at(path: readonly PathSegment[]): Pos;
   /** Position of the key that names the value at `path` (for "unknown key" style messages). */
   keyAt(path: readonly PathSegment[]): Pos;
+  /** The text of the scalar at `path` exactly as written (`2e-3`, not the 0.002 it parses to); undefined when there is none. */
+  sourceAt?(path: readonly PathSegment[]): string | undefined;
 }
 
 /** Aliases allowed per file: enough for honest reuse, far too few for an expansion bomb. */
@@ -78,7 +80,18 @@ export function parseYamlFile(file: string, text: string): YamlFile {
     }
     return best;
   };
-  return { file, text, data, at: (path) => find(path, false), keyAt: (path) => find(path, true) };
+  const sourceAt = (path: readonly PathSegment[]): string | undefined => {
+    let node: unknown = doc.contents;
+    for (const seg of path) {
+      if (isMap(node)) node = node.items.find((p) => (isScalar(p.key) ? String(p.key.value) : p.key) === String(seg))?.value;
+      else if (isSeq(node) && typeof seg === 'number') node = node.items[seg];
+      else return undefined;
+    }
+    if (!isScalar(node) || !isNodeWithRange(node)) return undefined;
+    const raw = text.slice(node.range[0], node.range[1]).trim();
+    return /^["']/.test(raw) ? raw.slice(1, -1) : raw;
+  };
+  return { file, text, data, at: (path) => find(path, false), keyAt: (path) => find(path, true), sourceAt };
 }
 
 function isNodeWithRange(node: unknown): node is Node & { range: [number, number, number] } {
