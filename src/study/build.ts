@@ -5,7 +5,7 @@
  */
 import { parseDate, yearsBetween } from '../reliability/units.js';
 import { ErrorCollector, FollowOnError, StudyError } from './errors.js';
-import { checkLogic } from './check-logic.js';
+import { checkLogic, suggest } from './check-logic.js';
 import { readSharedCauseSections } from './event-trees.js';
 import { fitProvenance, fittedValue } from './fits.js';
 import { lint } from './lint.js';
@@ -45,7 +45,7 @@ export const DEFAULT_SETTINGS: Settings = {
 };
 
 /** Runs one fit (the reader supplies it: fitting reads data files). */
-export type FitRunner = (fit: FitSpec) => void;
+export type FitRunner = (fit: FitSpec, asOf?: string) => void;
 
 export interface BuildInput {
   root: string;
@@ -88,7 +88,7 @@ export function buildStudy(input: BuildInput): Study {
     return f;
   });
   // Every fit runs, used or not, so bad records surface as errors either way.
-  for (const f of fits) attempt(() => input.runFit(f));
+  for (const f of fits) attempt(() => input.runFit(f, asOf));
   const fitSources = new Map(fits.map((f) => [f.id, f]));
 
   const parameters: Parameter[] = [];
@@ -421,8 +421,12 @@ function readScenario(
     const cls = classes.get(owner);
     const known = event ? Object.keys(event.fields) : cls ? [...cls.fields.keys()] : undefined;
     if (refused.has(owner) || cls?.failed?.has(field)) throw new FollowOnError(`scenario '${id}' sets '${key}', whose owner or value was refused`, kAt, 'see the error for it');
-    if (dot < 1 || !known) throw new StudyError(`scenario '${id}' sets '${key}', which names no event or class`, kAt, "'<event or class id>.<field>', e.g. 'hoist-motor.exercise'");
-    if (!known.includes(field)) throw new StudyError(`scenario '${id}' sets '${key}', but '${owner}' has no '${field}'`, kAt, `one of: ${known.map((f) => `${owner}.${f}`).join(', ')}`);
+    if (dot < 1 || !known) {
+      // Did you mean: the nearest '<owner>.<field>' the study has.
+      const keys = [...events.flatMap((e) => Object.keys(e.fields).map((f) => `${e.id}.${f}`)), ...[...classes].flatMap(([c, v]) => [...v.fields.keys()].map((f) => `${c}.${f}`))];
+      throw new StudyError(`scenario '${id}' sets '${key}', which names no event or class`, kAt, suggest(key, keys, "'<event or class id>.<field>', e.g. 'hoist-motor.exercise'"));
+    }
+    if (!known.includes(field)) throw new StudyError(`scenario '${id}' sets '${key}', but '${owner}' has no '${field}'`, kAt, suggest(key, known.map((f) => `${owner}.${f}`), `one of: ${known.map((f) => `${owner}.${f}`).join(', ')}`));
     const quantity = quantityOfField(field);
     const vAt = file.at(['scenarios', id, 'set', key]);
     const q = readQuantity(value, quantity, vAt, `scenario '${id}' ${key}`, field, file.sourceAt?.(['scenarios', id, 'set', key]));

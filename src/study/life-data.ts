@@ -179,6 +179,8 @@ const LIFE_WITH_UNIT = /^life(?:[ _]+([a-z]+)|\s*[([]\s*([a-z]+)\s*[)\]])$/;
 export interface LifeDataOptions {
   /** Unit of bare life numbers, from the caller (`life_unit:` of a fit, `--life-unit`). */
   lifeUnit?: string;
+  /** The study's snapshot date: a record ending after it cannot have been observed. */
+  asOf?: string;
   /** How the caller lets the user state the unit, for the message when none is stated (e.g. "`--life-unit h`"). */
   unitOption?: string;
 }
@@ -247,7 +249,7 @@ export function parseLifeData(text: string, file: string, options: LifeDataOptio
       const k = column.get(name);
       return k === undefined ? undefined : row.cells[k];
     };
-    const life = hasLife ? readLife(cell('life')!, file, lifeColumn) : readDates(cell('installed')!, cell('ended')!, file);
+    const life = hasLife ? readLife(cell('life')!, file, lifeColumn) : readDates(cell('installed')!, cell('ended')!, file, options.asOf);
     const statusCell = cell('status')!;
     const word = statusCell.text.trim().toLowerCase().replace(/\s+/g, ' ');
     let status: LifeStatus;
@@ -316,11 +318,14 @@ function readLife(cell: Cell, file: string, column: LifeColumn): number {
   return years;
 }
 
-function readDates(installedCell: Cell, endedCell: Cell, file: string): number {
+function readDates(installedCell: Cell, endedCell: Cell, file: string, asOf?: string): number {
   const from = parseDate(installedCell.text);
   if (!from.ok) throw new StudyError(`installed: ${from.message}`, positionOf(file, installedCell), from.expected);
   const to = parseDate(endedCell.text);
   if (!to.ok) throw new StudyError(`ended: ${to.message}`, positionOf(file, endedCell), to.expected);
+  if (asOf !== undefined && yearsBetween(asOf, to.value) > 0) {
+    throw new StudyError(`ended ${endedCell.text} is after the study's as_of date ${asOf}`, positionOf(file, endedCell), `an end date on or before ${asOf} (a unit still running then is suspended at ${asOf})`);
+  }
   const years = yearsBetween(from.value, to.value);
   if (!(years > 0)) {
     throw new StudyError(

@@ -218,6 +218,8 @@ export interface FitSpec {
   result?: WeibullFit;
   /** Set by the reader: rows in the file, excluded ones too. */
   rows?: number;
+  /** Set by the reader: the longest life (failed or suspended) among the records the fit used, years. */
+  dataMaxYears?: number;
   /** Path inside the study folder, as written. */
   data: string;
   method: 'mle' | 'rank';

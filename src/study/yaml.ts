@@ -145,6 +145,15 @@ function explainYamlError(code: ErrorCode, raw: string, text: string, offset: nu
       }
       return { message: firstLine(raw), hint: 'valid YAML (check indentation, colons and quotes)', offset };
     }
+    // The parser's words stay (they are searchable); the hint says in plain words what usually causes them.
+    case 'BAD_INDENT':
+      return { message: firstLine(raw), hint: 'this line is indented differently from the lines beside it: the keys of one mapping start in the same column (use spaces, two per level)', offset };
+    case 'BLOCK_AS_IMPLICIT_KEY':
+      return { message: firstLine(raw), hint: "a line indented further than the key above it is read as part of that key's value: indent it like its neighbours; or, if a value holds ': ', put the value in quotes", offset };
+    case 'MULTILINE_IMPLICIT_KEY':
+      return { message: firstLine(raw), hint: "a key and its ':' on one line; check the indentation of this line and the one above it", offset };
+    case 'TAB_AS_INDENT':
+      return { message: firstLine(raw), hint: 'indentation with spaces only (two per level), no tabs', offset };
     default:
       return { message: firstLine(raw), hint: 'valid YAML (check indentation, colons and quotes)', offset };
   }
