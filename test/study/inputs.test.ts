@@ -204,6 +204,12 @@ describe('messages', () => {
     expect(r.stderr).toBe("error: faultbook run has no option '--ouut'\n  expected: one of: --help, --out, --format, --paper, --quiet; did you mean '--out'?\n");
   });
 
+  it('a misspelt command gets "did you mean"', async () => {
+    const r = await faultbook('chek', 'somewhere');
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain("did you mean 'check'?");
+  });
+
   it('a misspelt model name and scenario key get "did you mean"', () => {
     expect(errorsOf(oneEvent('model: repairabel, rate: 2e-3 /year, repair: 8 h'))[0]!.hint).toMatch(/did you mean 'repairable'\?$/);
     const [e] = errorsOf({ ...oneEvent('model: repairable, rate: 2e-3 /year, repair: 8 h'), logic: `${ONE_TOP}scenarios:\n  s: { title: x, set: { e.repiar: 1 day } }\n` });
