@@ -60,14 +60,21 @@ function describePath(path: PathSegment[], file: YamlFile): string {
 function translate(errors: ErrorObject[], file: YamlFile): StudyError[] {
   const rank: Record<string, number> = { additionalProperties: 0, required: 1, enum: 2, const: 2, pattern: 3, type: 4, minimum: 5, maximum: 5 };
   const byPath = new Map<string, ErrorObject>();
+  const badIds: StudyError[] = [];
   for (const e of errors) {
+    // A key that breaks the id rule (propertyNames): one error per key, at the key itself.
+    if (e.keyword === 'propertyNames') continue;
+    if (e.propertyName !== undefined) {
+      badIds.push(badIdError(e.propertyName, pathOf(e.instancePath), file));
+      continue;
+    }
     const key = e.instancePath;
     const prev = byPath.get(key);
     if (!prev || (rank[e.keyword] ?? 9) < (rank[prev.keyword] ?? 9)) byPath.set(key, e);
   }
   // A oneOf failure at a parent is only noise when a child path already explains it.
   const paths = [...byPath.keys()];
-  const out: StudyError[] = [];
+  const out: StudyError[] = [...badIds];
   for (const [instancePath, e] of byPath) {
     if (e.keyword === 'oneOf' && paths.some((p) => p !== instancePath && p.startsWith(instancePath + '/'))) continue;
     out.push(toStudyError(e, pathOf(instancePath), file));
@@ -105,6 +112,16 @@ function toStudyError(e: ErrorObject, path: PathSegment[], file: YamlFile): Stud
     default:
       return new StudyError(`${where} ${e.message ?? 'is not valid'}`, file.at(path), (e.parentSchema as { description?: string } | undefined)?.description ?? 'see the study format in the README');
   }
+}
+
+/** An id key (of a top, gate, event, group, tree, scenario …) that is not a letter followed by letters, digits, '-', '_' or '.'. */
+function badIdError(key: string, path: PathSegment[], file: YamlFile): StudyError {
+  const what = key === '' ? 'an empty id' : `the id ${JSON.stringify(key)}, which is not a valid id`;
+  return new StudyError(
+    `${describePath(path, file)} has ${what}`,
+    file.keyAt([...path, key]),
+    "an id: a letter, then letters, digits, '-', '_' or '.' (no spaces, slashes, formulas or control characters)",
+  );
 }
 
 function allowedKeys(e: ErrorObject): string[] {
