@@ -15,6 +15,8 @@ import { parseYamlFile, type YamlFile } from './yaml.js';
 
 /** A study file larger than this is refused before it is read (a real study is kilobytes). */
 export const MAX_FILE_BYTES = 8 * 1024 * 1024;
+/** assumptions.md larger than this would not make an appendix in bounded time (about 20,000 words). */
+export const MAX_MARKDOWN_BYTES = 128 * 1024;
 
 const YAML_FILES: { name: string; kind: StudyFileKind }[] = [
   { name: 'study.yaml', kind: 'study' },
@@ -49,6 +51,15 @@ export function readStudy(folder: string): Study {
     return text;
   };
 
+  const readMarkdown = (rel: string): string => {
+    const text = readText(rel);
+    const bytes = Buffer.byteLength(text, 'utf8');
+    if (bytes > MAX_MARKDOWN_BYTES) {
+      throw new StudyError(`${rel} is ${(bytes / 1024).toFixed(0)} KiB, more Markdown than an appendix can hold`, { file: rel, line: 1, col: 1 }, `at most ${MAX_MARKDOWN_BYTES / 1024} KiB of Markdown (keep long material in a referenced document)`);
+    }
+    return text;
+  };
+
   const yamlFiles: YamlFile[] = [];
   const structureErrors: StudyError[] = [];
   for (const { name, kind } of YAML_FILES) {
@@ -62,7 +73,7 @@ export function readStudy(folder: string): Study {
   }
   if (structureErrors.length) throw structureErrors.length === 1 ? structureErrors[0]! : new StudyErrors(structureErrors);
 
-  const assumptions = existsSync(join(root, 'assumptions.md')) ? parseAssumptions(readText('assumptions.md'), 'assumptions.md') : [];
+  const assumptions = existsSync(join(root, 'assumptions.md')) ? parseAssumptions(readMarkdown('assumptions.md'), 'assumptions.md') : [];
   const study = buildStudy({
     root,
     yamlFiles,

@@ -58,7 +58,7 @@ function describePath(path: PathSegment[], file: YamlFile): string {
  * specific error per instance path: an unknown key beats a type mismatch beats "no branch matched".
  */
 function translate(errors: ErrorObject[], file: YamlFile): StudyError[] {
-  const rank: Record<string, number> = { additionalProperties: 0, required: 1, enum: 2, const: 2, pattern: 3, type: 4, minimum: 5, maximum: 5 };
+  const rank: Record<string, number> = { maxProperties: -1, additionalProperties: 0, required: 1, enum: 2, const: 2, pattern: 3, type: 4, minimum: 5, maximum: 5 };
   const byPath = new Map<string, ErrorObject>();
   const badIds: StudyError[] = [];
   for (const e of errors) {
@@ -107,6 +107,11 @@ function toStudyError(e: ErrorObject, path: PathSegment[], file: YamlFile): Stud
     case 'exclusiveMaximum':
       // ajv's own text ("must be >= 1000") reads as code; say the value and the range instead.
       return new StudyError(`${where} is ${typeof e.data === 'number' ? String(e.data) : JSON.stringify(e.data)}, out of range`, file.at(path), `a number ${String(params.comparison)} ${String(params.limit)}`);
+    case 'maxProperties': {
+      const count = e.data && typeof e.data === 'object' ? Object.keys(e.data).length : undefined;
+      const desc = (e.parentSchema as { description?: string } | undefined)?.description;
+      return new StudyError(`${where} has ${count ?? 'too many'} entries, more than ${String(params.limit)}`, file.at(path), desc ?? `at most ${String(params.limit)}`);
+    }
     case 'oneOf':
       return new StudyError(`${where} is not a valid parameter`, file.at(path), (e.parentSchema as { description?: string } | undefined)?.description ?? 'see the study format in the README');
     default:

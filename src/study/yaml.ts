@@ -28,6 +28,8 @@ const MAX_DEPTH = 64;
  * reuse fits and one long scalar repeated by the alias limit (7 MB × 200) cannot exhaust memory.
  */
 export const MAX_EXPANDED_CHARS = 16 * 1024 * 1024;
+/** One text value (a title, a note, a Markdown scope) longer than this is not prose an appendix can hold. */
+export const MAX_TEXT_CHARS = 64 * 1024;
 
 export function parseYamlFile(file: string, text: string): YamlFile {
   const lineCounter = new LineCounter();
@@ -180,7 +182,16 @@ function checkExpandedSize(doc: Document, posOf: (offset: number) => Pos): void 
       if (!firstAlias && node.range) firstAlias = posOf(node.range[0]);
       // Not yet sized means the alias sits inside its own anchor: the parser refuses that itself.
       total = sizes.get(anchors.get(node.source)) ?? 1;
-    } else if (isScalar(node)) total = typeof node.value === 'string' ? node.value.length + 1 : 8;
+    } else if (isScalar(node)) {
+      if (typeof node.value === 'string' && node.value.length > MAX_TEXT_CHARS) {
+        throw new StudyError(
+          `a text of ${node.value.length.toLocaleString('en-US')} characters, longer than a study text may be`,
+          posOf(node.range?.[0] ?? 0),
+          `at most ${MAX_TEXT_CHARS / 1024} Ki characters per value (keep long material in a referenced document)`,
+        );
+      }
+      total = typeof node.value === 'string' ? node.value.length + 1 : 8;
+    }
     else if (isMap(node)) {
       total = 1;
       for (const p of node.items) total += size(p.key) + size(p.value);
