@@ -34,6 +34,7 @@ import type { YamlFile } from './yaml.js';
 export const DEFAULT_SETTINGS: Settings = {
   cutoff: 1e-12,
   max_order: 8,
+  max_cut_sets: 10_000,
   samples: 20000,
   seed: 20260630,
   horizon: 30,

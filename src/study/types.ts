@@ -139,6 +139,8 @@ export interface Settings {
   cutoff: number;
   /** Cut sets of more events than this are not listed. */
   max_order: number;
+  /** At most this many cut sets are kept per top (the most probable); the rest are counted and summed. */
+  max_cut_sets: number;
   samples: number;
   seed: number;
   /** Forecast horizon, years. */
