@@ -38,6 +38,8 @@ export interface EventResult {
   total_probability?: number;
   /** Shared events only: the members whose common failure this event is. */
   common_cause_members?: string[];
+  /** Set when the event's age lies beyond the oldest life (failed or suspended) in the data behind its fitted parameters. */
+  extrapolated?: { fit: string; age_years: number; data_max_years: number };
 }
 
 export interface ParameterResult {
@@ -94,6 +96,15 @@ export interface TopResult {
     cutoff: number;
     max_order: number;
     coherent: boolean;
+    /** The cap on cut sets kept per top (settings.max_cut_sets). */
+    max_cut_sets?: number;
+    /**
+     * Cut sets that met the cutoff and the order limit but were left out by the cap, and their
+     * summed probability: exact when `capped_exact`, otherwise upper bounds. 0 when none was.
+     */
+    capped?: number;
+    capped_probability?: number;
+    capped_exact?: boolean;
   };
   importance?: Importance[];
   /** Importance of each component class (all its events together), ranked by FV; see importance-classes.ts. */

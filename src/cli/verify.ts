@@ -47,8 +47,8 @@ const run: Command = async (argv, io) => {
     report = await verifyArchive(readFileSync(file), { trust, limits });
   } catch (err) {
     if (!(err instanceof ArchiveFormatError)) throw err;
-    io.stdout(`verify ${printable(file)}\n`);
-    io.stdout(`failed: it cannot be read as a faultbook archive: ${printable(err.message)}\n`);
+    io.stdout(`verify ${file}\n`);
+    io.stdout(`failed: it cannot be read as a faultbook archive: ${err.message}\n`);
     if (/limit/.test(err.message)) io.stdout(`  (if the archive is trusted to be that large, raise the limit: --max-unpacked-mib N)\n`);
     return EXIT.verifyMismatch;
   }
@@ -64,16 +64,11 @@ function positiveInteger(value: unknown, flag: string): number | undefined {
   return n;
 }
 
-/** Text from an archive shown with control and text-direction characters escaped, so it cannot rewrite the terminal. */
-export function printable(text: string): string {
-  return text.replace(/[\u0000-\u001f\u007f-\u009f\u202a-\u202e\u2066-\u2069]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
-}
-
 function origin(r: VerifyReport): string {
   const c = r.origin.check;
   if (c.status === 'valid') {
-    const who = `signed by "${printable(c.signer.name)}" with Ed25519 key SHA-256 ${c.signer.key_sha256}`;
-    if (c.trustedBy) return `${who}: a trusted key (${printable(c.trustedBy.path)})`;
+    const who = `signed by "${c.signer.name}" with Ed25519 key SHA-256 ${c.signer.key_sha256}`;
+    if (c.trustedBy) return `${who}: a trusted key (${c.trustedBy.path})`;
     return r.origin.trustGiven ? `${who}: NOT a trusted key` : `${who}; origin not checked: no --trust key was given, and anyone can sign`;
   }
   if (c.status === 'unsigned') return r.origin.trustGiven ? 'not signed: origin cannot be confirmed' : 'not signed; origin not checked';
@@ -83,20 +78,20 @@ function origin(r: VerifyReport): string {
 function printReport(file: string, r: VerifyReport, io: Io): void {
   const m = r.manifest;
   const out = (line: string) => io.stdout(`${line}\n`);
-  out(`verify ${printable(file)}`);
-  out(`  study: ${printable(m.study.title)}, revision ${printable(m.study.revision)} (${printable(m.study.status)}), as of ${printable(m.study.as_of)}`);
-  out(`  made with faultbook ${printable(m.tool.version)} on Node ${printable(m.tool.node)}; ${m.files.length} files in the manifest`);
+  out(`verify ${file}`);
+  out(`  study: ${m.study.title}, revision ${m.study.revision} (${m.study.status}), as of ${m.study.as_of}`);
+  out(`  made with faultbook ${m.tool.version} on Node ${m.tool.node}; ${m.files.length} files in the manifest`);
   out(`  origin: ${origin(r)}`);
   if (r.rerendered.length) out(`  re-rendered byte-identical from the archived inputs: ${r.rerendered.join(', ')}`);
-  for (const n of r.notes) out(`  note: ${printable(n)}`);
+  for (const n of r.notes) out(`  note: ${n}`);
   if (r.differences.length === 0) {
     out(`ok: all ${r.agreed.length} hashes agree, and all ${r.numbersCompared} numbers of results.json are recomputed exactly from the archived inputs`);
     return;
   }
   out(`${r.differences.length} difference${r.differences.length === 1 ? '' : 's'}:`);
   for (const d of r.differences) {
-    out(`  - [${d.kind}] ${printable(d.message)}`);
-    for (const line of d.details) out(`      ${printable(line)}`);
+    out(`  - [${d.kind}] ${d.message}`);
+    for (const line of d.details) out(`      ${line}`);
   }
   out(`hashes that agree: ${r.agreed.length} of ${m.files.length}`);
 }

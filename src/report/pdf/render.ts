@@ -4,6 +4,7 @@ import { FONT_FILES } from '../assets.js';
 import { PAGES, contentBox, pdfPageSize } from '../paper.js';
 import type { Appendix, Block, CalloutBlock, FigureBlock, KeyValueBlock, PreBlock, Run, Section, TableBlock } from '../view.js';
 import { markdownToPdf } from './markdown.js';
+import { breakLongWordsIn } from './long-words.js';
 import { installTagging, markStructure } from './tagging.js';
 
 /**
@@ -32,7 +33,7 @@ const TONE: Record<CalloutBlock['tone'], { edge: string; fill: string }> = {
 
 export async function renderPdf(view: Appendix): Promise<Buffer> {
   prepare();
-  const definition = documentDefinition(view);
+  const definition = breakLongWordsIn(documentDefinition(view));
   markStructure(definition as Parameters<typeof markStructure>[0]);
   const doc = pdfmake.createPdf(definition);
   return doc.getBuffer();
