@@ -2,7 +2,7 @@
  * YAML with positions. A study file is parsed once into a document that keeps every node's place,
  * so any later check can point at file, line and column by the path of the value it rejects.
  */
-import { isMap, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type ErrorCode, type Node } from 'yaml';
+import { isMap, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type ErrorCode, type Node, type Pair, type YAMLMap } from 'yaml';
 import { StudyError } from './errors.js';
 import type { Pos } from './types.js';
 
@@ -27,7 +27,9 @@ const MAX_DEPTH = 64;
 export function parseYamlFile(file: string, text: string): YamlFile {
   const lineCounter = new LineCounter();
   // stringKeys: a key that is a list or a mapping is an error here, not a warning printed by the parser later.
-  const doc = parseDocument(text, { lineCounter, uniqueKeys: true, prettyErrors: false, strict: true, stringKeys: true });
+  // uniqueKeys is checked below instead: the parser's own check scans the mapping for every key,
+  // which is quadratic in a file of thousands of events.
+  const doc = parseDocument(text, { lineCounter, uniqueKeys: false, prettyErrors: false, strict: true, stringKeys: true });
   const posOf = (offset: number): Pos => {
     const { line, col } = lineCounter.linePos(offset);
     return { file, line, col };
@@ -38,6 +40,7 @@ export function parseYamlFile(file: string, text: string): YamlFile {
     throw new StudyError(`YAML: ${message}`, posOf(offset), hint);
   }
   checkDepth(doc, posOf);
+  checkUniqueKeys(doc, text, posOf);
   let data: unknown;
   try {
     data = doc.toJS({ maxAliasCount: MAX_ALIASES });
@@ -54,13 +57,29 @@ export function parseYamlFile(file: string, text: string): YamlFile {
     throw new StudyError(`YAML: ${firstLine(message)}`, at, `at most ${MAX_ALIASES} alias expansions; write the values out`);
   }
   if (data === null || data === undefined) data = {};
+  // Each mapping's pairs by key, made on first lookup: a study with thousands of events asks for
+  // thousands of positions, and a scan of the mapping per lookup made reading quadratic.
+  const pairsByKey = new WeakMap<object, Map<string, Pair<unknown, unknown>>>();
+  const pairOf = (map: YAMLMap<unknown, unknown>, key: string): Pair<unknown, unknown> | undefined => {
+    let index = pairsByKey.get(map);
+    if (!index) {
+      index = new Map();
+      for (const p of map.items) {
+        if (!isScalar(p.key)) continue;
+        const k = String(p.key.value);
+        if (!index.has(k)) index.set(k, p);
+      }
+      pairsByKey.set(map, index);
+    }
+    return index.get(key);
+  };
   const find = (path: readonly PathSegment[], wantKey: boolean): Pos => {
     let node: unknown = doc.contents;
     let best: Pos = { file, line: 1, col: 1 };
     if (isNodeWithRange(node)) best = posOf(node.range[0]);
     for (const seg of path) {
       if (isMap(node)) {
-        const pair = node.items.find((p) => (isScalar(p.key) ? String(p.key.value) : p.key) === String(seg));
+        const pair = pairOf(node, String(seg));
         if (!pair) return best;
         if (wantKey && isNodeWithRange(pair.key)) best = posOf(pair.key.range[0]);
         node = pair.value;
@@ -95,6 +114,30 @@ function checkDepth(doc: Document, posOf: (offset: number) => Pos): void {
     }
     if (isMap(node)) for (const p of node.items) stack.push({ node: p.value, depth: depth + 1 });
     else if (isSeq(node)) for (const item of node.items) stack.push({ node: item, depth: depth + 1 });
+  }
+}
+
+/** The first key that appears twice in one mapping, reported as the parser's DUPLICATE_KEY would be. */
+function checkUniqueKeys(doc: Document, text: string, posOf: (offset: number) => Pos): void {
+  const stack: unknown[] = [doc.contents];
+  let first = Infinity;
+  while (stack.length > 0) {
+    const node = stack.pop();
+    if (isMap(node)) {
+      const seen = new Set<string>();
+      for (const p of node.items) {
+        if (isScalar(p.key)) {
+          const key = String(p.key.value);
+          if (seen.has(key) && p.key.range) first = Math.min(first, p.key.range[0]);
+          seen.add(key);
+        }
+        stack.push(p.value);
+      }
+    } else if (isSeq(node)) for (const item of node.items) stack.push(item);
+  }
+  if (first < Infinity) {
+    const { message, hint, offset } = explainYamlError('DUPLICATE_KEY', 'Map keys must be unique', text, first);
+    throw new StudyError(`YAML: ${message}`, posOf(offset), hint);
   }
 }
 
