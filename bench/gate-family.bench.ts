@@ -4,7 +4,9 @@
  * library building the same function in the same variable order (bench/buddy/build.c, whole
  * process too, with its own garbage collection), their ratio, the final diagram size, each side's
  * peak memory (/usr/bin/time -v), and the exact values side by side (they must agree to 1e-12
- * relative; a row says so). Prints figures; never fails on a timing.
+ * relative; a row says so). Wall and CPU (user + system) seconds are both shown: on a shared
+ * machine the CPU figure is the steadier one; the ratio is of wall times. Prints figures; never
+ * fails on a timing.
  *
  *   node bench/run.js gate-family
  *   node --import tsx bench/gate-family.bench.ts [--bin path/to/bin/faultbook.js] [--max-nodes N] [--only 400]
@@ -44,6 +46,8 @@ const only = arg('--only');
 interface Timed {
   ok: boolean;
   seconds: number;
+  /** User + system CPU seconds: steadier than wall time on a shared machine. */
+  cpu: number;
   maxRssMb: number;
   stdout: string;
   stderr: string;
@@ -55,7 +59,10 @@ function timedRun(cmd: string, args: string[]): Timed {
   const r = spawnSync('/usr/bin/time', ['-v', cmd, ...args], { encoding: 'utf8', maxBuffer: 1 << 26 });
   const seconds = (performance.now() - t0) / 1000;
   const rss = /Maximum resident set size \(kbytes\): (\d+)/.exec(r.stderr ?? '');
-  return { ok: r.status === 0, seconds, maxRssMb: rss ? Number(rss[1]) / 1024 : NaN, stdout: r.stdout ?? '', stderr: r.stderr ?? '' };
+  const user = /User time \(seconds\): ([\d.]+)/.exec(r.stderr ?? '');
+  const sys = /System time \(seconds\): ([\d.]+)/.exec(r.stderr ?? '');
+  const cpu = user && sys ? Number(user[1]) + Number(sys[1]) : NaN;
+  return { ok: r.status === 0, seconds, cpu, maxRssMb: rss ? Number(rss[1]) / 1024 : NaN, stdout: r.stdout ?? '', stderr: r.stderr ?? '' };
 }
 
 const pad = (s: string | number, n: number): string => String(s).padStart(n);
@@ -70,7 +77,7 @@ function main(): void {
   console.log(`gate family (invented): faultbook ${bin} run --format json, whole process, vs BuDDy whole process`);
   if (typeof buddy !== 'string') console.log(`BuDDy comparison skipped: ${buddy.skipped}`);
   console.log(
-    [pad('M/K', 7), pad('events', 7), pad('top nodes', 10), pad('BuDDy s', 8), pad('MB', 6), pad('faultbook s', 12), pad('MB', 6), pad('ratio', 6), pad('P(top)', 22), pad('rel. diff', 10)].join(' '),
+    [pad('M/K', 7), pad('events', 7), pad('top nodes', 10), pad('BuDDy s', 8), pad('cpu', 5), pad('MB', 6), pad('faultbook s', 12), pad('cpu', 5), pad('MB', 6), pad('ratio', 6), pad('P(top)', 22), pad('rel. diff', 10)].join(' '),
   );
   let prev: { nodes: number; seconds: number } | undefined;
   for (const [M, K] of SIZES) {
@@ -83,12 +90,12 @@ function main(): void {
       const p = evaluateEvents(study, baseCase()).probability;
       const dump = join(dir, 'buddy.txt');
       writeBuddyDump(dump, model.graph, p, model.topGates[0]!, variableOrder(model.graph), 0);
-      let b: { seconds: number; maxRssMb: number; probability: number; nodes: number } | undefined;
+      let b: { seconds: number; cpu: number; maxRssMb: number; probability: number; nodes: number } | undefined;
       if (typeof buddy === 'string') {
         const r = timedRun('sh', ['-c', 'ulimit -s unlimited 2>/dev/null || ulimit -s 1048576 2>/dev/null; exec "$0" "$1" 1', buddy, dump]);
         if (r.ok) {
           const j = JSON.parse(r.stdout.trim().split('\n').pop()!) as { probability: number; top_nodes: number };
-          b = { seconds: r.seconds, maxRssMb: r.maxRssMb, probability: j.probability, nodes: j.top_nodes };
+          b = { seconds: r.seconds, cpu: r.cpu, maxRssMb: r.maxRssMb, probability: j.probability, nodes: j.top_nodes };
         } else console.log(`  BuDDy failed: ${r.stderr.trim().split('\n').slice(0, 2).join(' | ')}`);
       }
       const out = join(dir, 'out');
@@ -105,8 +112,8 @@ function main(): void {
       console.log(
         [
           pad(`${M}/${K}`, 7), pad(study.events.length, 7), pad(nodes, 10),
-          pad(b ? b.seconds.toFixed(2) : '-', 8), pad(b ? b.maxRssMb.toFixed(0) : '-', 6),
-          pad(f.seconds.toFixed(2), 12), pad(f.maxRssMb.toFixed(0), 6),
+          pad(b ? b.seconds.toFixed(2) : '-', 8), pad(b ? b.cpu.toFixed(2) : '-', 5), pad(b ? b.maxRssMb.toFixed(0) : '-', 6),
+          pad(f.seconds.toFixed(2), 12), pad(f.cpu.toFixed(2), 5), pad(f.maxRssMb.toFixed(0), 6),
           pad(b ? `${(f.seconds / b.seconds).toFixed(1)}×` : '-', 6),
           pad(P.toPrecision(16), 22), pad(b ? rel.toExponential(1) : '-', 10),
           b && rel > 1e-12 ? ' DIFFERS beyond 1e-12' : '',
