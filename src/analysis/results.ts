@@ -96,6 +96,11 @@ export interface TopResult {
     coherent: boolean;
   };
   importance?: Importance[];
+  /**
+   * Basic events left out of `importance` because every measure is zero: the top does not depend
+   * on them (Birnbaum 0), so no change to their data can change it; `note` says so in words.
+   */
+  no_effect?: { events: string[]; note: string };
   /** Importance of each component class (all its events together), ranked by FV; see importance-classes.ts. */
   class_importance?: ClassImportance[];
   /** Gate id → probability of that gate's output, for the logic diagrams (optional; the report shows "—" without it). */
