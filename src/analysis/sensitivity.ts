@@ -20,7 +20,8 @@
  * factor, a member's total that moves its shared events) is one full bottom-up pass.
  */
 import { DAYS_PER_YEAR } from '../reliability/units.js';
-import { EventProbabilityError } from './event-probability.js';
+import { evaluateEvent, EventProbabilityError, eventsReading } from './event-probability.js';
+import { commonCauseOf } from './common-cause.js';
 import { StudyError } from '../study/errors.js';
 import { checkDomain } from '../study/quantities.js';
 import type { FitSpec, Parameter, Study } from '../study/types.js';
@@ -102,6 +103,8 @@ class OneAtATime {
   }
 
   tops(c: Case): Float64Array {
+    const single = this.singleEvent(c);
+    if (single) return this.moveOne(single.variable, single.probability);
     const p = this.quantifier.events(c);
     const base = this.baseEvents;
     let moved = -1;
@@ -111,7 +114,24 @@ class OneAtATime {
       moved = v;
     }
     if (moved < 0) return Float64Array.from(this.base);
-    const pv = p[moved]!;
+    return this.moveOne(moved, p[moved]!);
+  }
+
+  /**
+   * The common case, found without evaluating every event: one override read by one event outside
+   * any common-cause group, so that event's variable is the only one that can move.
+   */
+  private singleEvent(c: Case): { variable: number; probability: number } | undefined {
+    const study = this.quantifier.study;
+    if (c.overrides.size !== 1 || c.switches.size > 0 || c.renewals.size > 0 || c.years !== 0) return undefined;
+    const readers = eventsReading(study, c.overrides.keys().next().value!);
+    if (readers.length !== 1 || commonCauseOf(study).memberOf.has(readers[0]!)) return undefined;
+    return { variable: readers[0]!, probability: evaluateEvent(study, readers[0]!, c).probability };
+  }
+
+  /** Top probabilities with variable `moved` at probability pv and every other at its base value. */
+  private moveOne(moved: number, pv: number): Float64Array {
+    if (pv === this.baseEvents[moved]) return Float64Array.from(this.base);
     return Float64Array.from(this.conditionals, (x, t) => {
       const p1 = x.onTrue[moved]!;
       const p0 = x.onFalse[moved]!;
