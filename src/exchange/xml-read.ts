@@ -1,0 +1,72 @@
+/**
+ * XML text → a small element tree in which every element knows where it was written, so an import
+ * error can point at line and column as the YAML reader does. The streaming parser (saxes) checks
+ * well-formedness and gives positions; the tree keeps only what an MEF reader needs: names,
+ * attributes, child elements and the text of leaf elements (labels).
+ *
+ * Entity declarations (a DOCTYPE with an internal subset) are refused: the standard's own way to
+ * split a model is `include`, and external entities would make the import read files it was not
+ * given.
+ */
+import { SaxesParser } from 'saxes';
+import { StudyError } from '../study/errors.js';
+import type { Pos } from '../study/types.js';
+
+export interface XmlElement {
+  name: string;
+  attributes: Record<string, string>;
+  children: XmlElement[];
+  /** Character data directly inside the element (labels), whitespace kept as written. */
+  text: string;
+  at: Pos;
+}
+
+export function parseXml(file: string, text: string): XmlElement {
+  const parser = new SaxesParser({ position: true });
+  const stack: XmlElement[] = [];
+  let root: XmlElement | undefined;
+  let failure: StudyError | undefined;
+  const here = (): Pos => ({ file, line: parser.line, col: parser.column + 1 });
+
+  parser.on('doctype', (doctype) => {
+    if (doctype.includes('[')) {
+      failure ??= new StudyError('the document declares entities in its DOCTYPE', here(), 'a single self-contained MEF file (no entity declarations)');
+    }
+  });
+  parser.on('opentagstart', (tag) => {
+    // The parser stands just after `<name`; the element starts at its `<`.
+    const col = Math.max(1, parser.column - tag.name.length);
+    const element: XmlElement = { name: tag.name, attributes: {}, children: [], text: '', at: { file, line: parser.line, col } };
+    const parent = stack[stack.length - 1];
+    if (parent) parent.children.push(element);
+    else root = element;
+    stack.push(element);
+  });
+  parser.on('attribute', (attr) => {
+    const element = stack[stack.length - 1];
+    if (element) element.attributes[attr.name] = attr.value;
+  });
+  parser.on('text', (t) => {
+    const element = stack[stack.length - 1];
+    if (element) element.text += t;
+  });
+  parser.on('cdata', (t) => {
+    const element = stack[stack.length - 1];
+    if (element) element.text += t;
+  });
+  parser.on('closetag', () => {
+    stack.pop();
+  });
+  parser.on('error', (err) => {
+    // saxes prefixes messages with "line:col: "; the position goes into the StudyError instead.
+    failure ??= new StudyError(`not well-formed XML: ${err.message.replace(/^[^:]*:\d+:\d+: /, '')}`, here(), 'a well-formed XML document');
+  });
+  try {
+    parser.write(text).close();
+  } catch (err) {
+    if (!failure) throw err;
+  }
+  if (failure) throw failure;
+  if (!root) throw new StudyError('the document has no root element', { file, line: 1, col: 1 }, 'an <opsa-mef> root element');
+  return root;
+}
