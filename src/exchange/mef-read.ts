@@ -440,7 +440,9 @@ class MefReader {
       if (!probability) continue;
       const event: PlainEvent = { id, kind: 'basic', probability: probability.value, at: def.element.at };
       if (title) event.title = title;
-      if (probability.note) event.note = probability.note;
+      const exported = exportedModel(def.element);
+      const note = exported ?? probability.note;
+      if (note) event.note = note;
       model.events.push(event);
     }
   }
@@ -664,6 +666,15 @@ function requireName(el: XmlElement): string {
   const name = el.attributes.name;
   if (!name) throw new StudyError(`<${el.name}> has no name`, el.at, 'a name attribute');
   return name;
+}
+
+/** The model and values a faultbook export names for a probability it wrote as its value at as_of. */
+function exportedModel(el: XmlElement): string | undefined {
+  const attrs = el.children.find((c) => c.name === 'attributes')?.children ?? [];
+  const get = (name: string) => attrs.find((a) => a.attributes.name === `${META_PREFIX}${name}`)?.attributes.value;
+  const parameters = get('parameters');
+  const at = get('value-at');
+  return parameters && at ? `value at ${at} of ${parameters}` : undefined;
 }
 
 function labelText(el: XmlElement): string {

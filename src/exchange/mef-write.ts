@@ -120,8 +120,9 @@ export function studyToMef(study: Study): ExportResult {
     if (p.note) attrs.push([`${META_PREFIX}note`, p.note]);
     if (p.fit) attrs.push([`${META_PREFIX}fit`, p.fit]);
     data.push(el('define-parameter', { name: parameterName.get(p.key)!, unit }, [label(p.written), ...attributesNode(attrs), floatNode(p.value)]));
-    if (p.uncertainty) result.notCarried.push(`uncertainty distribution of parameter ${p.key} (the point value is exported)`);
   }
+  const uncertain = exported.filter((p) => p.uncertainty).map((p) => p.key);
+  if (uncertain.length) result.notCarried.push(`uncertainty distributions of ${uncertain.length} parameters (their point values are exported): ${uncertain.join(', ')}`);
   for (const e of study.events) {
     if (members.has(e.id)) continue;
     data.push(eventNode(study, e, total.get(e.id)!, byKey, paramRef, result));

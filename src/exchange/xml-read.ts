@@ -26,7 +26,9 @@ export function parseXml(file: string, text: string): XmlElement {
   const stack: XmlElement[] = [];
   let root: XmlElement | undefined;
   let failure: StudyError | undefined;
-  const here = (): Pos => ({ file, line: parser.line, col: parser.column + 1 });
+  // saxes counts columns from 0 at the character it will read next, so its column is the 1-based
+  // column of the character it has just read: where a problem is found.
+  const here = (): Pos => ({ file, line: parser.line, col: Math.max(1, parser.column) });
 
   parser.on('doctype', (doctype) => {
     if (doctype.includes('[')) {
@@ -34,8 +36,8 @@ export function parseXml(file: string, text: string): XmlElement {
     }
   });
   parser.on('opentagstart', (tag) => {
-    // The parser stands just after `<name`; the element starts at its `<`.
-    const col = Math.max(1, parser.column - tag.name.length);
+    // The parser has read `<name` and the character that ended the name; the element starts at its `<`.
+    const col = Math.max(1, parser.column - tag.name.length - 1);
     const element: XmlElement = { name: tag.name, attributes: {}, children: [], text: '', at: { file, line: parser.line, col } };
     const parent = stack[stack.length - 1];
     if (parent) parent.children.push(element);
