@@ -6,7 +6,7 @@
 import { existsSync, mkdtempSync, readdirSync, readFileSync, realpathSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { basename, dirname, join, relative, resolve } from 'node:path';
-import { StudyError } from '../study/errors.js';
+import { StudyError, StudyErrors } from '../study/errors.js';
 import { readStudy, sha256, MAX_FILE_BYTES } from '../study/read.js';
 import { readMef } from '../exchange/mef-read.js';
 import { studyFiles } from '../exchange/study-write.js';
@@ -65,9 +65,8 @@ const run: Command = async (argv, io) => {
 };
 
 /**
- * Reads the made folder back as a study before anything is written where the user asked: a model
- * the import turned into files faultbook would refuse is a fault of the import (exit 1), never a
- * half-made folder.
+ * Reads the made folder back as a study before anything is written where the user asked, so a
+ * model faultbook would refuse never leaves a half-made folder behind.
  */
 function checkReadable(files: Map<string, string>): void {
   const scratch = mkdtempSync(join(tmpdir(), 'faultbook-import-'));
@@ -76,8 +75,13 @@ function checkReadable(files: Map<string, string>): void {
     try {
       readStudy(scratch);
     } catch (err) {
-      const message = err instanceof Error ? err.message : String(err);
-      throw new Error(`the imported study does not read back: ${message}`);
+      // The reader's rules that the MEF reader does not repeat (a value's domain, say): the
+      // document is what gave it, so it is an input error, described in the study's terms.
+      if (err instanceof StudyError || err instanceof StudyErrors) {
+        const first = err instanceof StudyErrors ? err.errors[0]! : err;
+        throw new StudyError(`the model in the document is not a valid study: ${first.message}`, undefined, first.hint ?? 'a model within what faultbook represents');
+      }
+      throw err;
     }
   } finally {
     rmSync(scratch, { recursive: true, force: true });

@@ -74,11 +74,11 @@ class MefReader {
       throw new StudyError(`the root element is <${root.name}>`, root.at, 'an Open-PSA MEF document, whose root element is <opsa-mef>');
     }
     const meta: Record<string, string> = {};
-    let title: string | undefined;
+    let title: string | undefined = root.attributes.name;
     for (const child of root.children) {
       switch (child.name) {
         case 'label':
-          title = labelText(child);
+          title = labelText(child) || title;
           break;
         case 'attributes':
           for (const [name, value] of this.readAttributes(child, 'the model')) {
@@ -362,6 +362,9 @@ class MefReader {
           if (!Number.isInteger(k) || k < 1) this.errors.push(new StudyError(`atleast has min="${el.attributes.min ?? ''}"`, el.at, 'a positive integer min'));
           gate.k = k;
           gate.inputs = args(el.children);
+          if (Number.isInteger(k) && k > el.children.length) {
+            this.errors.push(new StudyError(`atleast min="${k}" has ${el.children.length} arguments`, el.at, `a min between 1 and ${el.children.length}`));
+          }
           if (new Set(gate.inputs).size !== gate.inputs.length) {
             this.errors.push(new StudyError('atleast lists an argument twice', el.at, 'distinct arguments (faultbook counts each input once)'));
           }
@@ -515,6 +518,11 @@ class MefReader {
       const value = this.number(f.children[0]!, path, `factor of CCF group '${name}'`);
       if (value === undefined) return;
       if (byLevel.has(level)) this.errors.push(new StudyError(`CCF group '${name}' gives level ${level} twice`, f.at, 'one factor per level'));
+      // Beta and MGL factors are conditional probabilities; alpha factors need only be ≥ 0 (scale-free).
+      const upper = model === 'alpha-factor' ? Infinity : 1;
+      if (!(value.value >= 0 && value.value <= upper)) {
+        this.errors.push(new StudyError(`factor ${value.value} of CCF group '${name}' is out of range`, f.at, model === 'alpha-factor' ? 'a factor of zero or more' : 'a factor between 0 and 1'));
+      }
       byLevel.set(level, value.value);
     });
     const expectLevels = (levels: number[], hint: string): boolean => {
@@ -549,7 +557,15 @@ class MefReader {
           return undefined;
         }
         if (!expectLevels(range(1, m), `factors for levels 1 to ${m}`)) return undefined;
-        return { method: 'alpha', values: Object.fromEntries(range(1, m).map((k) => [`alpha${k}`, byLevel.get(k)!])) };
+        // The standard's alpha-factor formula divides by Σ iα_i, so scaling every α leaves Q_k as it
+        // is; faultbook states α that add up to 1, so factors that do not are scaled to.
+        const sum = range(1, m).reduce((a, k) => a + byLevel.get(k)!, 0);
+        if (!(sum > 0)) {
+          this.errors.push(new StudyError(`the alpha factors of CCF group '${name}' add up to ${sum}`, element.at, 'alpha factors with a positive sum'));
+          return undefined;
+        }
+        const scale = Math.abs(sum - 1) > 1e-9 ? sum : 1;
+        return { method: 'alpha', values: Object.fromEntries(range(1, m).map((k) => [`alpha${k}`, byLevel.get(k)! / scale])) };
       }
       default:
         this.errors.push(

@@ -292,6 +292,12 @@ describe('import: common-cause groups (meta_logical_layer.rst "Common Cause Grou
     expect(rel(topProbabilities(r.out).get('two-fail')!, expected)).toBeLessThan(1e-12);
     const logic = parse(readFileSync(join(r.out, 'logic.yaml'), 'utf8'));
     expect(logic.common_cause.pumps).toMatchObject({ method: 'alpha', testing: 'non-staggered', members });
+
+    // The section's formula divides by Σ iα_i: factors given as percentages describe the same group.
+    const percent = `<factors>${alphas.map((a, i) => `<factor level="${i + 1}"><float value="${a * 100}"/></factor>`).join('')}</factors>`;
+    const scaled = await importDoc(group('alpha-factor', members, percent, 0.003));
+    expect(scaled.code).toBe(0);
+    expect(rel(topProbabilities(scaled.out).get('two-fail')!, expected)).toBeLessThan(1e-12);
   });
 });
 
@@ -328,6 +334,14 @@ describe('import: what faultbook cannot represent stops the import with its posi
       message: /basic event 'ghost' is not declared, so it has no probability/,
       line: 3,
       col: 55,
+    },
+    {
+      // fault_tree_layer.rst, semantics table: at least k of the n arguments — k above n cannot be meant.
+      name: 'atleast above its argument count',
+      xml: doc(`<define-fault-tree name="t">\n<define-gate name="g"><atleast min="3"><basic-event name="a"/><basic-event name="b"/></atleast></define-gate>\n</define-fault-tree>\n<model-data>${be('a', 0.1)}${be('b', 0.1)}</model-data>`),
+      message: /atleast min="3" has 2 arguments[\s\S]*a min between 1 and 2/,
+      line: 4,
+      col: 23,
     },
     {
       name: 'declared twice',
