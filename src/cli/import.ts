@@ -47,6 +47,10 @@ const run: Command = async (argv, io) => {
   if (existsSync(dir) && readdirSync(dir).length > 0 && !args.values.force) {
     throw new StudyError(`${out} exists and is not empty`, undefined, 'a new or empty folder, or --force to write the study files into it');
   }
+  const STUDY_FILES = ['study.yaml', 'logic.yaml', 'events.yaml', 'sources.yaml', 'assumptions.md'];
+  if (existsSync(dir) && realpathSync(dir) === dirname(inputPath) && STUDY_FILES.includes(basename(inputPath))) {
+    throw new StudyError(`--out ${out} would overwrite the input ${input}`, undefined, 'a new folder for the study');
+  }
   const asOf = args.values['as-of'] as string | undefined;
   if (asOf !== undefined && !parseDate(asOf).ok) throw new StudyError(`--as-of ${asOf} is not a date`, undefined, 'an ISO date such as 2026-06-30');
 

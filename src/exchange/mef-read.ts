@@ -121,7 +121,8 @@ class MefReader {
         continue;
       }
       const kind = DEFINES[child.name];
-      if (kind) {
+      // model-data holds events and parameters, not gates (mef/schema/fault_tree.rnc, model-data).
+      if (kind && !(isModelData && kind === 'gate')) {
         this.declare(kind, child, path, roleOf(child, containerPrivate));
       } else if (child.name === 'define-component' && !isModelData) {
         const name = requireName(child);

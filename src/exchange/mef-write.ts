@@ -155,6 +155,7 @@ export function studyToMef(study: Study): ExportResult {
   if (study.failureModes?.length) result.notCarried.push(`failure-mode sets (${study.failureModes.map((f) => f.id).join(', ')})`);
   if (study.counts?.length) result.notCarried.push(`gate counts (${study.counts.map((c) => c.id).join(', ')})`);
   if (study.scenarios.length) result.notCarried.push(`scenarios (${study.scenarios.map((c) => c.id).join(', ')})`);
+  result.notCarried.push("study.yaml's people, dates other than as_of, scope and description; sources.yaml and assumptions.md (each parameter's source and note travel as its attributes)");
   if (study.fits.length) result.notCarried.push(`life-data fits (${study.fits.map((f) => f.id).join(', ')}): their estimates are exported as parameter values`);
   return result;
 }
