@@ -64,6 +64,9 @@ const run: Command = async (argv, io) => {
   checkReadable(files);
   const written = writeOutputs(dir, [...files].map(([name, data]) => ({ name, data })));
   io.stdout(`made a study of ${model.tops.length} top${model.tops.length === 1 ? '' : 's'}, ${model.gates.length} gates, ${model.events.length} events, ${model.groups.length} common-cause group${model.groups.length === 1 ? '' : 's'}\n`);
+  if (model.unusedParameters.length) {
+    io.stdout(`${model.unusedParameters.length} parameter${model.unusedParameters.length === 1 ? '' : 's'} of the file that nothing uses: listed in assumptions.md A3\n`);
+  }
   for (const w of written) io.stdout(`wrote ${relative(process.cwd(), w) || w}\n`);
   return EXIT.ok;
 };

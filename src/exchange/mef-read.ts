@@ -65,6 +65,7 @@ class MefReader {
   private readonly attributes: PlainAttribute[] = [];
   private readonly errors: StudyError[] = [];
   private readonly attributesRead = new WeakSet<XmlElement>();
+  private readonly usedParameters = new Set<Definition>();
 
   constructor(private readonly root: XmlElement) {}
 
@@ -99,7 +100,7 @@ class MefReader {
       }
     }
     this.stop();
-    const model: PlainModel = { meta, tops: [], gates: [], events: [], groups: [], attributes: this.attributes };
+    const model: PlainModel = { meta, tops: [], gates: [], events: [], groups: [], attributes: this.attributes, unusedParameters: [] };
     if (title) model.title = title;
     this.build(model);
     this.stop();
@@ -253,6 +254,25 @@ class MefReader {
     this.addGroups(model);
     this.stop();
     this.checkLoops(model);
+    this.listUnusedParameters(model);
+  }
+
+  /** Parameters nothing uses are not part of the model, but they are not dropped without a word either. */
+  private listUnusedParameters(model: PlainModel): void {
+    for (const def of this.parameters.values()) {
+      if (this.usedParameters.has(def)) continue;
+      this.ownerAttributes(def.element);
+      const body = def.element.children.filter((c) => c.name !== 'label' && c.name !== 'attributes');
+      const constant = body.length === 1 && (body[0]!.name === 'float' || body[0]!.name === 'int') ? body[0]!.attributes.value : undefined;
+      const unit = def.element.attributes.unit;
+      const title = titleOf(def.element);
+      model.unusedParameters.push({
+        name: fullName(def),
+        value: constant ?? `an expression <${body[0]?.name ?? 'none'}>, not read`,
+        ...(unit ? { unit } : {}),
+        ...(title ? { title } : {}),
+      });
+    }
   }
 
   /** fault_tree_layer.rst "Description": the equations must contain no loop; found here, at the gate. */
@@ -636,6 +656,7 @@ class MefReader {
         this.errors.push(new StudyError(`parameter '${name}' is not declared`, el.at, 'a define-parameter of that name (by name, full path or local path)'));
         return undefined;
       }
+      this.usedParameters.add(def);
       if (seen.has(def)) {
         this.errors.push(new StudyError(`parameter '${name}' is defined in terms of itself`, el.at, 'parameters without loops'));
         return undefined;

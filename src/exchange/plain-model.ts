@@ -68,6 +68,8 @@ export interface PlainModel {
   events: PlainEvent[];
   groups: PlainGroup[];
   attributes: PlainAttribute[];
+  /** Parameters the document declares that no basic event or group uses: kept for the register. */
+  unusedParameters: { name: string; value: string; unit?: string; title?: string }[];
 }
 
 /**

@@ -140,6 +140,19 @@ function assumptions(model: PlainModel, from: ImportedFrom): string {
     lines.push('The attributes the file gives its elements, as written there.', '', '| element | attribute | value |', '|---|---|---|');
     for (const a of rows) lines.push(`| ${cell(a.owner)} | ${cell(a.name)} | ${cell(a.value)} |`);
   }
+  lines.push('', '## A3 Parameters of the file that nothing uses');
+  if (model.unusedParameters.length === 0) lines.push('Every parameter of the file is used by a basic event or a common-cause group.');
+  else {
+    lines.push(
+      'The file declares these parameters but no basic event or common-cause group uses them, so they',
+      'are not part of this study (a file written by faultbook export holds every parameter of its',
+      'study this way). They are listed as written there.',
+      '',
+      '| parameter | value | unit | label |',
+      '|---|---|---|---|',
+    );
+    for (const p of model.unusedParameters) lines.push(`| ${cell(p.name)} | ${cell(p.value)} | ${cell(p.unit ?? '')} | ${cell(p.title ?? '')} |`);
+  }
   return lines.join('\n') + '\n';
 }
 

@@ -200,6 +200,7 @@ describe('import: fault trees (fault_tree_layer.rst)', () => {
     <define-parameter name="lambda" unit="hours-1"><float value="2e-4"/></define-parameter>
     <define-parameter name="mission" unit="hours"><float value="24"/></define-parameter>
     <define-parameter name="p-b"><label>Pump B fails on demand</label><float value="0.003"/></define-parameter>
+    <define-parameter name="spare-rate" unit="years-1"><label>Spare pump, not modelled</label><float value="0.02"/></define-parameter>
     <define-basic-event name="pump-a"><label>Pump A fails to run</label><exponential><parameter name="lambda"/><parameter name="mission"/></exponential></define-basic-event>
     <define-basic-event name="pump-b"><label>Pump B fails to start</label><parameter name="p-b"/></define-basic-event>
   </model-data>`),
@@ -214,6 +215,9 @@ describe('import: fault trees (fault_tree_layer.rst)', () => {
     const assumptions = readFileSync(join(r.out, 'assumptions.md'), 'utf8');
     expect(assumptions).toContain('| station | zone | north |');
     expect(assumptions).toContain('| no-flow | owner | team-7 |');
+    // A parameter nothing uses is not part of the model, and is listed rather than dropped.
+    expect(assumptions).toContain('| spare-rate | 0.02 | years-1 | Spare pump, not modelled |');
+    expect(r.stdout).toContain('1 parameter of the file that nothing uses: listed in assumptions.md A3');
     const expected = (1 - Math.exp(-2e-4 * 24)) * 0.003;
     expect(rel(topProbabilities(r.out).get('no-flow')!, expected)).toBeLessThan(1e-12);
     // sources.yaml names the file and its SHA-256.
