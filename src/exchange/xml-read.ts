@@ -21,6 +21,9 @@ export interface XmlElement {
   at: Pos;
 }
 
+/** Elements nested deeper than this are refused: no MEF model needs it, and the readers recurse. */
+export const MAX_XML_DEPTH = 256;
+
 export function parseXml(file: string, text: string): XmlElement {
   const parser = new SaxesParser({ position: true });
   const stack: XmlElement[] = [];
@@ -39,6 +42,9 @@ export function parseXml(file: string, text: string): XmlElement {
     // The parser has read `<name` and the character that ended the name; the element starts at its `<`.
     const col = Math.max(1, parser.column - tag.name.length - 1);
     const element: XmlElement = { name: tag.name, attributes: {}, children: [], text: '', at: { file, line: parser.line, col } };
+    if (stack.length >= MAX_XML_DEPTH) {
+      failure ??= new StudyError(`elements are nested more than ${MAX_XML_DEPTH} deep`, element.at, `at most ${MAX_XML_DEPTH} levels (name the inner formulae as gates)`);
+    }
     const parent = stack[stack.length - 1];
     if (parent) parent.children.push(element);
     else root = element;
@@ -46,7 +52,8 @@ export function parseXml(file: string, text: string): XmlElement {
   });
   parser.on('attribute', (attr) => {
     const element = stack[stack.length - 1];
-    if (element) element.attributes[attr.name] = attr.value;
+    // fault_tree_layer.rst "Use Portable Identifiers": tools should ignore whitespace around names.
+    if (element) element.attributes[attr.name] = attr.name === 'name' ? attr.value.trim() : attr.value;
   });
   parser.on('text', (t) => {
     const element = stack[stack.length - 1];

@@ -162,10 +162,11 @@ describe('import: fault trees (fault_tree_layer.rst)', () => {
   it('a fault tree split over several define-fault-tree blocks, references between trees, several model-data sections', async () => {
     // fault_tree_layer.rst "Description": events may be used before they are declared and a model may
     // hold several trees; model_organization.rst "Organization of a Model": a model holds any number
-    // of fault trees and model-data containers.
+    // of fault trees and model-data containers; fault_tree_layer.rst "Use Portable Identifiers": space
+    // around a name is noise (" x " is x).
     const r = await importDoc(
       doc(`
-  <model-data>${be('x', 0.1)}</model-data>
+  <model-data><define-basic-event name=" x "><float value="0.1"/></define-basic-event></model-data>
   <define-fault-tree name="power">
     <define-gate name="no-power"><and><basic-event name="x"/><gate name="backup-lost"/></and></define-gate>
   </define-fault-tree>
@@ -398,6 +399,13 @@ describe('import: what faultbook cannot represent stops the import with its posi
       message: /declares entities/,
       line: 2,
       col: 56,
+    },
+    {
+      name: 'formulae nested past the depth limit',
+      xml: doc(`<define-fault-tree name="t"><define-gate name="g">${'<or>'.repeat(300)}<basic-event name="a"/>${'</or>'.repeat(300)}</define-gate></define-fault-tree>`),
+      message: /elements are nested more than 256 deep/,
+      line: 3,
+      col: 50 + 4 * 253 + 1,
     },
     {
       name: 'another root element',
