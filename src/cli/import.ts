@@ -67,7 +67,10 @@ const run: Command = async (argv, io) => {
   if (model.unusedParameters.length) {
     io.stdout(`${model.unusedParameters.length} parameter${model.unusedParameters.length === 1 ? '' : 's'} of the file that nothing uses: listed in assumptions.md A3\n`);
   }
-  for (const w of written) io.stdout(`wrote ${relative(process.cwd(), w) || w}\n`);
+  for (const w of written) {
+    const shown = relative(process.cwd(), w);
+    io.stdout(`wrote ${shown && !shown.startsWith('..') ? shown : w}\n`);
+  }
   return EXIT.ok;
 };
 
