@@ -100,7 +100,7 @@ class MefReader {
       }
     }
     this.stop();
-    const model: PlainModel = { meta, tops: [], gates: [], events: [], groups: [], attributes: this.attributes, unusedParameters: [] };
+    const model: PlainModel = { meta, tops: [], gates: [], events: [], classes: [], groups: [], attributes: this.attributes, unusedParameters: [] };
     if (title) model.title = title;
     this.build(model);
     this.stop();
@@ -464,11 +464,27 @@ class MefReader {
       if (!probability) continue;
       const event: PlainEvent = { id, kind: 'basic', probability: probability.value, at: def.element.at };
       if (title) event.title = title;
+      if (body[0]!.name === 'parameter' && probability.value.kind === 'fixed') {
+        event.class = this.classFor(model, body[0]!, def.path, probability.value.value);
+        model.events.push(event);
+        continue;
+      }
       const exported = exportedModel(def.element);
       const note = exported ?? probability.note;
       if (note) event.note = note;
       model.events.push(event);
     }
+  }
+
+  /** The class standing for the parameter a basic event names (made once per parameter). */
+  private classFor(model: PlainModel, ref: XmlElement, from: string[], value: number): string {
+    const def = this.resolve('parameter', ref.attributes.name ?? '', from)!;
+    const id = this.idOf(def);
+    if (!model.classes.some((c) => c.id === id)) {
+      const title = titleOf(def.element);
+      model.classes.push({ id, ...(title ? { title } : {}), probability: value, parameter: fullName(def) });
+    }
+    return id;
   }
 
   private addGroups(model: PlainModel): void {

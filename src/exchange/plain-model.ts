@@ -18,6 +18,11 @@ export interface PlainEvent {
   kind: 'basic' | 'house';
   /** Basic events. */
   probability?: PlainProbability;
+  /**
+   * Basic events whose expression is one MEF parameter: the faultbook class that stands for that
+   * parameter (so every event that uses it shares one parameter, as in the document).
+   */
+  class?: string;
   /** House events: the value the document gives (false when it gives none). */
   on?: boolean;
   /** Where the number came from in the document (parameter name, model the exporter reported). */
@@ -34,6 +39,15 @@ export interface PlainGate {
   /** Made for a nested formula; `from` is the gate whose formula held it. */
   generatedFrom?: string;
   at: Pos;
+}
+
+/** An MEF parameter used as the probability of basic events: a `fixed` class of faultbook. */
+export interface PlainClass {
+  id: string;
+  title?: string;
+  probability: number;
+  /** The parameter's name in the document. */
+  parameter: string;
 }
 
 export interface PlainTop {
@@ -66,6 +80,7 @@ export interface PlainModel {
   tops: PlainTop[];
   gates: PlainGate[];
   events: PlainEvent[];
+  classes: PlainClass[];
   groups: PlainGroup[];
   attributes: PlainAttribute[];
   /** Parameters the document declares that no basic event or group uses: kept for the register. */

@@ -89,14 +89,20 @@ export function studyFiles(model: PlainModel, from: ImportedFrom): Map<string, s
   }
   files.set('logic.yaml', header(from) + stringify(logic, { lineWidth: 0 }));
 
+  // An MEF parameter that gives basic events their probability is one faultbook class: one
+  // parameter shared by its events (for sensitivity and uncertainty), as in the document.
+  const classes = Object.fromEntries(
+    model.classes.map((c) => [c.id, { title: c.title ?? c.id, ...probabilityFields({ kind: 'fixed', value: c.probability }, `MEF parameter ${c.parameter}`) }]),
+  );
   const events = Object.fromEntries(
     model.events.map((e) => {
       const title = e.title ?? e.id;
       if (e.kind === 'house') return [e.id, { title, model: 'switch', on: e.on ?? false }];
+      if (e.class) return [e.id, { title, class: e.class }];
       return [e.id, { title, ...probabilityFields(e.probability!, e.note) }];
     }),
   );
-  files.set('events.yaml', header(from) + stringify({ events }, { lineWidth: 0 }));
+  files.set('events.yaml', header(from) + stringify({ ...(model.classes.length ? { classes } : {}), events }, { lineWidth: 0 }));
 
   const sources = {
     sources: {
@@ -120,7 +126,8 @@ function assumptions(model: PlainModel, from: ImportedFrom): string {
     `This study was made by \`faultbook import\` from \`${from.fileName}\` (SHA-256 \`${from.sha256}\`), a document in`,
     'the Open-PSA Model Exchange Format. Its gates, house events, basic events and common-cause groups',
     'map one to one to this study; formulae nested inside a gate became gates of their own, named',
-    '`<gate>.<n>`. A probability the file gives as a number is a `fixed` probability here; an',
+    '`<gate>.<n>`. A probability the file gives as a number is a `fixed` probability here, one it',
+    'gives as a parameter is a `fixed` class shared by the events that name the parameter, and an',
     'exponential of a rate and a time is a `rate` model with both units. Nothing in the file was left',
     'out: an element faultbook cannot represent stops the import. Check every number against its',
     'original source before relying on the study, and replace the single source in sources.yaml by',

@@ -210,7 +210,10 @@ describe('import: fault trees (fault_tree_layer.rst)', () => {
     expect(r.code).toBe(0);
     const events = parse(readFileSync(join(r.out, 'events.yaml'), 'utf8')).events;
     expect(events['pump-a']).toMatchObject({ title: 'Pump A fails to run', model: 'rate', rate: { value: '0.0002 /h' }, exposure: { value: '24 h' } });
-    expect(events['pump-b']).toMatchObject({ model: 'fixed', probability: { value: 0.003, note: 'MEF parameter p-b' } });
+    // A parameter that gives a basic event its probability becomes a class its events share.
+    expect(events['pump-b']).toEqual({ title: 'Pump B fails to start', class: 'p-b' });
+    const classes = parse(readFileSync(join(r.out, 'events.yaml'), 'utf8')).classes;
+    expect(classes['p-b']).toMatchObject({ title: 'Pump B fails on demand', model: 'fixed', probability: { value: 0.003, note: 'MEF parameter p-b' } });
     const study = parse(readFileSync(join(r.out, 'study.yaml'), 'utf8'));
     expect(study.title).toBe('Invented pumping station');
     const assumptions = readFileSync(join(r.out, 'assumptions.md'), 'utf8');
