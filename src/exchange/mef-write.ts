@@ -5,7 +5,8 @@
  *     differs from its gate's is a pass-through gate (fault_tree_layer.rst "XML Representation");
  *   - gates any/all/atleast/not → define-gate with or/and/atleast/not;
  *   - switch events → define-house-event with their base-case constant;
- *   - fixed → a basic event whose expression is its probability parameter; rate → the exponential
+ *   - fixed, and demand without a standby part → a basic event whose expression is its probability
+ *     parameter; rate → the exponential
  *     built-in of its rate (years-1) and exposure (years) parameters (stochastic_layer.rst);
  *   - every other model → the event's probability at `as_of` as a float, with attributes naming
  *     the model and the values that produced it (listed by the command);
@@ -173,6 +174,10 @@ function eventNode(
     return el('define-house-event', { name: e.id }, [...head, el('constant', { value: e.on ? 'true' : 'false' })]);
   }
   if (e.model === 'fixed') return el('define-basic-event', { name: e.id }, [...head, paramRef(e.fields.probability!)]);
+  if (e.model === 'demand' && !e.fields.rate && !e.fields.interval) {
+    // A demand model without its standby part is its per-demand probability.
+    return el('define-basic-event', { name: e.id }, [...head, ...attributesNode([[`${META_PREFIX}model`, 'demand']]), paramRef(e.fields.probability!)]);
+  }
   if (e.model === 'rate') {
     return el('define-basic-event', { name: e.id }, [...head, el('exponential', undefined, [paramRef(e.fields.rate!), paramRef(e.fields.exposure!)])]);
   }
