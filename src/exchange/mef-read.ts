@@ -148,12 +148,19 @@ class MefReader {
     if (earlier) {
       // fault_tree_layer.rst "Description": a second declaration is a defect the standard lets tools
       // resolve by keeping the last; faultbook does not guess which one the author meant.
+      const member = earlier.group ?? group;
       this.errors.push(
-        new StudyError(
-          `'${name}' is declared twice (first at line ${earlier.element.at.line}, column ${earlier.element.at.col})`,
-          element.at,
-          'one declaration per name in its name space (events and parameters each have their own)',
-        ),
+        member
+          ? new StudyError(
+              `'${name}' is a member of CCF group '${member.element.attributes.name}' and is declared again (the other declaration is at line ${earlier.element.at.line}, column ${earlier.element.at.col})`,
+              element.at,
+              "one declaration: the group's distribution gives its members their probability, so a member needs no define-basic-event",
+            )
+          : new StudyError(
+              `'${name}' is declared twice (first at line ${earlier.element.at.line}, column ${earlier.element.at.col})`,
+              element.at,
+              'one declaration per name in its name space (events and parameters each have their own)',
+            ),
       );
       return;
     }

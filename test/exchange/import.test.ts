@@ -359,6 +359,14 @@ describe('import: what faultbook cannot represent stops the import with its posi
       col: 1,
     },
     {
+      // meta_logical_layer.rst "Common Cause Groups": the group gives its members their distribution.
+      name: 'a CCF member declared again as a basic event',
+      xml: doc(`<define-fault-tree name="t"><define-gate name="g"><and><basic-event name="a"/><basic-event name="b"/></and></define-gate>\n<define-CCF-group name="ab" model="beta-factor"><members><basic-event name="a"/><basic-event name="b"/></members><distribution><float value="0.1"/></distribution><factor><float value="0.1"/></factor></define-CCF-group></define-fault-tree>\n<model-data>${be('a', 0.1)}</model-data>`),
+      message: /'a' is a member of CCF group 'ab' and is declared again \(the other declaration is at line 4, column 58\)[\s\S]*needs no define-basic-event/,
+      line: 5,
+      col: 13,
+    },
+    {
       // stochastic_layer.rst "Random Deviates": faultbook takes point values only.
       name: 'lognormal deviate',
       xml: doc(`<define-fault-tree name="t"><define-gate name="g"><or><basic-event name="a"/><basic-event name="b"/></or></define-gate></define-fault-tree>\n<model-data>${be('a', 0.1)}<define-basic-event name="b"><lognormal-deviate><float value="1e-3"/><float value="3"/><float value="0.95"/></lognormal-deviate></define-basic-event></model-data>`),
