@@ -10,7 +10,7 @@ import { StudyError, StudyErrors } from '../study/errors.js';
 import { readStudy, sha256, MAX_FILE_BYTES } from '../study/read.js';
 import { readMef } from '../exchange/mef-read.js';
 import { studyFiles } from '../exchange/study-write.js';
-import { parseXml } from '../exchange/xml-read.js';
+import { decodeXml, parseXml } from '../exchange/xml-read.js';
 import { parseDate } from '../reliability/units.js';
 import { helpText, parseCommandArgs, type CommandSpec } from './args.js';
 import { EXIT, type Command } from './io.js';
@@ -56,7 +56,7 @@ const run: Command = async (argv, io) => {
 
   const bytes = readFileSync(input);
   const file = basename(input);
-  const model = readMef(parseXml(file, bytes.toString('utf8')));
+  const model = readMef(parseXml(file, decodeXml(bytes)));
   if (!model.meta['as-of'] && !asOf) {
     throw new StudyError(`${file} states no snapshot date`, undefined, '--as-of DATE (e.g. --as-of 2026-06-30): every study is a snapshot at a date');
   }

@@ -21,6 +21,21 @@ export interface XmlElement {
   at: Pos;
 }
 
+/**
+ * The document's bytes as text: UTF-8 (with or without a byte-order mark) or UTF-16 with its mark,
+ * the encodings fault_tree_layer.rst "Use Portable Identifiers" asks tools to read.
+ */
+export function decodeXml(bytes: Buffer): string {
+  if (bytes[0] === 0xff && bytes[1] === 0xfe) return bytes.subarray(2).toString('utf16le');
+  if (bytes[0] === 0xfe && bytes[1] === 0xff) {
+    const swapped = Buffer.from(bytes.subarray(2));
+    swapped.swap16();
+    return swapped.toString('utf16le');
+  }
+  const text = bytes.toString('utf8');
+  return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+}
+
 /** Elements nested deeper than this are refused: no MEF model needs it, and the readers recurse. */
 export const MAX_XML_DEPTH = 256;
 

@@ -438,6 +438,30 @@ describe('import: what faultbook cannot represent stops the import with its posi
   }
 });
 
+describe('import: encodings (fault_tree_layer.rst "Use Portable Identifiers": UTF-8 and UTF-16)', () => {
+  const text = doc(`<define-fault-tree name="t"><define-gate name="g"><or><basic-event name="a"/><basic-event name="b"/></or></define-gate></define-fault-tree><model-data>${be('a', 0.1)}${be('b', 0.2)}</model-data>`)
+    .replace('<?xml version="1.0"?>', '<?xml version="1.0" encoding="UTF-16"?>')
+
+  const expected = 1 - 0.9 * 0.8;
+  const cases: [string, Buffer][] = [
+    ['UTF-8 with a byte-order mark', Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(text.replace('UTF-16', 'UTF-8'))])],
+    ['UTF-16 little-endian', Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(text, 'utf16le')])],
+    ['UTF-16 big-endian', Buffer.concat([Buffer.from([0xfe, 0xff]), Buffer.from(text, 'utf16le').swap16()])],
+  ];
+  for (const [name, bytes] of cases) {
+    it(name, async () => {
+      const dir = join(work, `enc-${++serial}`);
+      mkdirSync(dir);
+      const file = join(dir, 'model.xml');
+      writeFileSync(file, bytes);
+      const r = await faultbook('import', file, '--out', join(dir, 'study'), '--as-of', '2026-01-01');
+      expect(r.stderr).toBe('');
+      expect(r.code).toBe(0);
+      expect(rel(topProbabilities(join(dir, 'study')).get('g')!, expected)).toBeLessThan(1e-12);
+    });
+  }
+});
+
 describe('import: the output folder', () => {
   const model = doc(`<define-fault-tree name="t"><define-gate name="g"><or><basic-event name="a"/><basic-event name="b"/></or></define-gate></define-fault-tree><model-data>${be('a', 0.1)}${be('b', 0.2)}</model-data>`);
 
