@@ -15,7 +15,7 @@
  *     alpha staggered → alpha-factor with α'_k ∝ α_k / k, which gives the same Q_k when the α add
  *     up to 1;
  *   - every class, event and group parameter → define-parameter in canonical units (years,
- *     years-1) with its written text as label.
+ *     years-1) with its key and written text as label.
  * Study facts the standard has no element for (as-of, revision, settings) travel as attributes of
  * the root element, named faultbook-…, so an import by faultbook restores them.
  */
@@ -120,7 +120,7 @@ export function studyToMef(study: Study): ExportResult {
     if (p.source) attrs.push([`${META_PREFIX}source`, p.source]);
     if (p.note) attrs.push([`${META_PREFIX}note`, p.note]);
     if (p.fit) attrs.push([`${META_PREFIX}fit`, p.fit]);
-    data.push(el('define-parameter', { name: parameterName.get(p.key)!, unit }, [label(p.written), ...attributesNode(attrs), floatNode(p.value)]));
+    data.push(el('define-parameter', { name: parameterName.get(p.key)!, unit }, [label(`${p.key} = ${p.written}`), ...attributesNode(attrs), floatNode(p.value)]));
   }
   const uncertain = exported.filter((p) => p.uncertainty).map((p) => p.key);
   if (uncertain.length) result.notCarried.push(`uncertainty distributions of ${uncertain.length} parameters (their point values are exported): ${uncertain.join(', ')}`);
