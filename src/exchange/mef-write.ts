@@ -69,6 +69,14 @@ export function studyToMef(study: Study): ExportResult {
       errors.push(new StudyError(`top '${t.id}' has the id of a gate or event`, t.at, 'a top id no gate or event uses (the standard has one name space for events)'));
     }
   }
+  // The standard's top is a gate no other gate refers to ("Description"): a top named like a gate
+  // that other gates use would come back as no top at all.
+  const usedByGates = new Set(study.gates.flatMap((g) => g.inputs));
+  for (const t of study.tops) {
+    if (t.id === t.gate && usedByGates.has(t.gate)) {
+      errors.push(new StudyError(`top '${t.id}' has the id of its gate, which other gates use`, t.at, 'a top id of its own (the standard reads a gate that other gates use as no top)'));
+    }
+  }
   const parameterName = new Map<string, string>();
   const exported = study.parameters.filter((p) => p.ownerKind === 'class' || p.ownerKind === 'event' || p.ownerKind === 'group');
   const taken = new Map<string, Parameter>();
@@ -152,6 +160,19 @@ export function studyToMef(study: Study): ExportResult {
   }
   result.root.children = [label(study.meta.title), ...attributesNode(meta), el('define-fault-tree', { name: EXPORT_TREE }, tree), el('model-data', undefined, data)];
 
+  const reached = new Set<string>(study.tops.map((t) => t.gate));
+  const byId = new Map(study.gates.map((g) => [g.id, g]));
+  const stack = [...reached];
+  while (stack.length > 0) {
+    for (const input of byId.get(stack.pop()!)?.inputs ?? []) {
+      if (!byId.has(input) || reached.has(input)) continue;
+      reached.add(input);
+      stack.push(input);
+    }
+  }
+  for (const g of study.gates) {
+    if (!reached.has(g.id) && !usedByGates.has(g.id)) result.notes.push(`gate ${g.id} is reached from no top: the standard reads a gate no other gate uses as a top, so an import makes it one`);
+  }
   if (study.eventTrees?.length) result.notCarried.push(`event trees (${study.eventTrees.map((t) => t.id).join(', ')}): see README, "Exchange"`);
   if (study.failureModes?.length) result.notCarried.push(`failure-mode sets (${study.failureModes.map((f) => f.id).join(', ')})`);
   if (study.counts?.length) result.notCarried.push(`gate counts (${study.counts.map((c) => c.id).join(', ')})`);

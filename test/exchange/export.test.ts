@@ -162,6 +162,15 @@ describe('faultbook export', () => {
     expect((await faultbook('export', study, '--out', file, '--force')).code).toBe(0);
   });
 
+  it('a top named like a gate that other gates use is an input error (it would come back as no top)', async () => {
+    // fault_tree_layer.rst "Description": a top event is a variable that appears on no right-hand side.
+    const study = makeStudy();
+    writeFileSync(join(study, 'logic.yaml'), FILES['logic.yaml']!.replace('no-control: { title: No control of the pumps, gate: control-lost }', 'control-lost: { title: No control of the pumps, gate: control-lost }'));
+    const r = await faultbook('export', study, '--out', join(work, 'top.xml'));
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/error: logic\.yaml:3:\d+: top 'control-lost' has the id of its gate, which other gates use/);
+  });
+
   it('an id the standard cannot carry is an input error naming it', async () => {
     const study = makeStudy();
     writeFileSync(join(study, 'logic.yaml'), FILES['logic.yaml']!.replaceAll('control-lost', 'control.lost'));
