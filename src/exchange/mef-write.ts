@@ -149,6 +149,7 @@ export function studyToMef(study: Study): ExportResult {
   for (const [name, value] of Object.entries({
     cutoff: s.cutoff,
     max_order: s.max_order,
+    max_cut_sets: s.max_cut_sets,
     samples: s.samples,
     seed: s.seed,
     max_nodes: s.max_nodes,

@@ -24,6 +24,7 @@ export interface ImportedFrom {
 const SETTINGS: Record<string, 'number' | 'text'> = {
   cutoff: 'number',
   max_order: 'number',
+  max_cut_sets: 'number',
   samples: 'number',
   seed: 'number',
   max_nodes: 'number',
