@@ -45,35 +45,63 @@ export function createCanvas(width: number, height: number, label: string): Canv
 }
 
 /**
- * The SVG text, well-formed XML as well as HTML. The DOM's HTML serialiser leaves `<` and `>` raw
- * inside attribute values (legal in HTML, not in XML, and the PDF's SVG reader is an XML parser),
- * and writes `&nbsp;`, which XML does not define; both are made numeric or escaped here. Text
- * content is already escaped by the serialiser, so the attribute pass cannot touch it.
- * Serialising detaches the drawing from the shared DOM.
+ * The SVG text, well-formed XML and valid inline HTML alike: the drawing's DOM is written out
+ * here node by node, text escaped as text and attribute values as attribute values. (The DOM's own
+ * HTML serialiser leaves `<` raw in attributes and writes entities XML does not define, and no
+ * pattern over its output can tell markup from text a title happens to contain.) Characters XML
+ * 1.0 forbids become U+FFFD. Serialising detaches the drawing from the shared DOM.
  */
 export function serialize(canvas: Canvas): string {
   const element = canvas.svg.node();
   if (!element) throw new Error('canvas was already serialised');
-  const markup = element.outerHTML;
+  const out: string[] = [];
+  // An explicit stack: a drawing is shallow, but nothing here should depend on that.
+  const stack: (DomNode | string)[] = [element as unknown as DomNode];
+  while (stack.length > 0) {
+    const item = stack.pop()!;
+    if (typeof item === 'string') {
+      out.push(item);
+      continue;
+    }
+    if (item.nodeType === TEXT_NODE) {
+      out.push(escapeText(item.nodeValue ?? ''));
+      continue;
+    }
+    if (item.nodeType !== ELEMENT_NODE) continue;
+    const name = item.localName;
+    let open = `<${name}`;
+    for (const a of Array.from(item.attributes)) open += ` ${a.name}="${escapeAttribute(a.value)}"`;
+    out.push(`${open}>`);
+    stack.push(`</${name}>`);
+    const children = Array.from(item.childNodes);
+    for (let i = children.length - 1; i >= 0; i--) stack.push(children[i]!);
+  }
   canvas.svg.remove();
-  return markup
-    .replace(/="([^"]*)"/g, (_m, value: string) => `="${value.replace(/</g, '&lt;').replace(/>/g, '&gt;')}"`)
-    .replace(/&nbsp;/g, '&#160;');
+  return out.join('');
 }
 
-/**
- * The same drawing seen through a window: a new root tag with another viewBox and size. Used to
- * slice a figure too wide for a page into parts that each print at full size.
- */
-export function windowed(svg: string, x: number, width: number, height: number): string {
-  const w = round(width);
-  const h = round(height);
-  return svg.replace(/^<svg\b[^>]*>/, (tag) =>
-    tag
-      .replace(/\bwidth="[^"]*"/, `width="${w}pt"`)
-      .replace(/\bheight="[^"]*"/, `height="${h}pt"`)
-      .replace(/\bviewBox="[^"]*"/, `viewBox="${round(x)} 0 ${w} ${h}"`),
-  );
+/** The part of a DOM node the serialiser reads. */
+interface DomNode {
+  nodeType: number;
+  nodeValue: string | null;
+  localName: string;
+  attributes: ArrayLike<{ name: string; value: string }>;
+  childNodes: ArrayLike<DomNode>;
+}
+
+const ELEMENT_NODE = 1;
+const TEXT_NODE = 3;
+
+// XML 1.0 Char production: tab, newline, carriage return and U+0020 up, less surrogates (lone
+// ones) and U+FFFE/U+FFFF.
+const NOT_XML = /[^\t\n\r\u0020-\uD7FF\uE000-\uFFFD\u{10000}-\u{10FFFF}]/gu;
+
+export function escapeText(s: string): string {
+  return s.replace(NOT_XML, '\uFFFD').replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+}
+
+export function escapeAttribute(s: string): string {
+  return escapeText(s).replace(/"/g, '&quot;');
 }
 
 export function round(x: number): number {
