@@ -8,6 +8,8 @@
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
+import type { EventResult, Results } from '../../src/analysis/results.js';
+import { fixtureResults } from './fixture.js';
 
 interface StudyParts {
   title: string;
@@ -102,4 +104,27 @@ export function writeMarkupTitleStudy(dir: string): string {
     '    all: [panel-misreads, valve-misreads]',
   ];
   return writeStudy(dir, { title: 'Titles with markup characters (invented)', events, logic });
+}
+
+/**
+ * The same chain as `writeChainStudy`, as `Results` (for the report alone, without the analysis):
+ * placeholder probabilities, not computed; the tests using it check the drawing, not numbers.
+ */
+export function chainResults(depth: number): Results {
+  const r = fixtureResults();
+  const events: EventResult[] = [];
+  const gates: Results['logic']['gates'] = [];
+  const event = (id: string) => events.push({ id, title: `Part ${id} fails`, model: 'fixed', probability: 1e-7, parameters: { probability: 1e-7 }, parameter_keys: {}, assumptions: [] });
+  for (let i = 1; i <= depth; i++) {
+    event(`part-${i}`);
+    gates.push({ id: `link-${i}`, title: `Link ${i} fails`, op: 'any', inputs: [`part-${i}`, i === depth ? `part-${depth + 1}` : `link-${i + 1}`] });
+  }
+  event(`part-${depth + 1}`);
+  r.logic = { tops: [{ id: 'chain-top', title: 'The end of a long chain fails (invented)', gate: 'link-1' }], gates };
+  r.events = events;
+  r.parameters = [];
+  r.assumptions = [];
+  r.tops = [{ ...r.tops[0]!, id: 'chain-top', title: 'The end of a long chain fails (invented)', gate: 'link-1', gate_probabilities: {}, cut_sets: [], cut_set_summary: { listed: 0, truncated: 0, cutoff: 1e-12, max_order: 4, coherent: true } }];
+  r.tops.length = 1;
+  return r;
 }

@@ -1,11 +1,17 @@
-import { D3Node, type D3Selection } from 'd3-node';
+import type { D3Selection } from 'd3-node';
 
 /**
- * A blank SVG drawing surface (d3-node: d3 on a server-side DOM) and its serialisation.
+ * A blank SVG drawing surface and its serialisation.
  *
  * Every figure of the appendix is drawn through here, so they share the conventions both outputs
  * need: sizes in points with a matching viewBox (1 unit = 1 pt), the embedded Roboto font, and
  * presentation attributes only (the PDF's SVG converter ignores CSS).
+ *
+ * The drawing is a plain element tree with d3's chainable `append`/`attr`/`text` (the part of a
+ * d3 selection the figures use), written out by `serialize` with text and attribute values
+ * escaped. It replaced a server-side DOM (d3-node): building that DOM cost about a millisecond an
+ * element, which made a large study's diagrams take minutes, and its HTML serialiser could not
+ * produce XML.
  */
 export const FONT_FAMILY = 'Roboto, Helvetica, Arial, sans-serif';
 
@@ -22,75 +28,98 @@ export interface Canvas {
   height: number;
 }
 
-/**
- * One server-side DOM for every drawing: building a DOM costs more than drawing a small figure,
- * and each drawing is detached from it as soon as it is serialised, so drawings never meet.
- */
-let shared: D3Node | undefined;
+/** One element of a drawing. */
+class SvgElement implements D3Selection {
+  readonly attributes: [string, string][] = [];
+  children: (SvgElement | string)[] = [];
+  parent: SvgElement | null = null;
+
+  constructor(readonly name: string) {}
+
+  append(name: string): SvgElement {
+    const child = new SvgElement(name);
+    child.parent = this;
+    this.children.push(child);
+    return child;
+  }
+
+  attr(name: string, value: string | number): SvgElement {
+    const text = String(value);
+    const at = this.attributes.findIndex((a) => a[0] === name);
+    if (at >= 0) this.attributes[at]![1] = text;
+    else this.attributes.push([name, text]);
+    return this;
+  }
+
+  text(value: string): SvgElement {
+    this.children = [String(value)];
+    return this;
+  }
+
+  remove(): SvgElement {
+    if (this.parent) this.parent.children = this.parent.children.filter((c) => c !== this);
+    this.parent = null;
+    return this;
+  }
+
+  node(): { outerHTML: string } {
+    return { outerHTML: write(this) };
+  }
+}
 
 export function createCanvas(width: number, height: number, label: string): Canvas {
   const w = round(width);
   const h = round(height);
-  shared ??= new D3Node();
-  const svg = shared.createSVG(undefined, undefined, {
-    width: `${w}pt`,
-    height: `${h}pt`,
-    viewBox: `0 0 ${w} ${h}`,
-    'font-family': FONT_FAMILY,
-    role: 'img',
-    'aria-label': label,
-  });
+  const svg = new SvgElement('svg')
+    .attr('xmlns', 'http://www.w3.org/2000/svg')
+    .attr('width', `${w}pt`)
+    .attr('height', `${h}pt`)
+    .attr('viewBox', `0 0 ${w} ${h}`)
+    .attr('font-family', FONT_FAMILY)
+    .attr('role', 'img')
+    .attr('aria-label', label);
   svg.append('title').text(label);
   return { svg, width: w, height: h };
 }
 
 /**
- * The SVG text, well-formed XML and valid inline HTML alike: the drawing's DOM is written out
- * here node by node, text escaped as text and attribute values as attribute values. (The DOM's own
- * HTML serialiser leaves `<` raw in attributes and writes entities XML does not define, and no
- * pattern over its output can tell markup from text a title happens to contain.) Characters XML
- * 1.0 forbids become U+FFFD. Serialising detaches the drawing from the shared DOM.
+ * The SVG text, well-formed XML and valid inline HTML alike: every element written out with its
+ * text escaped as text and its attribute values as attribute values, so no title can be read as
+ * markup (a title with `mode="automatic standby"` wrapped over two lines once broke the old
+ * pattern-based fix-up of the DOM's HTML). Characters XML 1.0 forbids become U+FFFD. A canvas is
+ * serialised once.
  */
 export function serialize(canvas: Canvas): string {
-  const element = canvas.svg.node();
-  if (!element) throw new Error('canvas was already serialised');
+  const root = canvas.svg;
+  if (!(root instanceof SvgElement)) throw new Error('not a canvas of ours');
+  if (serialised.has(root)) throw new Error('canvas was already serialised');
+  serialised.add(root);
+  return write(root);
+}
+
+const serialised = new WeakSet<SvgElement>();
+
+/** The element and everything under it as text; an explicit stack, so no depth is too deep. */
+function write(element: SvgElement): string {
   const out: string[] = [];
-  // An explicit stack: a drawing is shallow, but nothing here should depend on that.
-  const stack: (DomNode | string)[] = [element as unknown as DomNode];
+  const stack: (SvgElement | { raw: string })[] = [element];
   while (stack.length > 0) {
     const item = stack.pop()!;
-    if (typeof item === 'string') {
-      out.push(item);
+    if (!(item instanceof SvgElement)) {
+      out.push(item.raw);
       continue;
     }
-    if (item.nodeType === TEXT_NODE) {
-      out.push(escapeText(item.nodeValue ?? ''));
-      continue;
-    }
-    if (item.nodeType !== ELEMENT_NODE) continue;
-    const name = item.localName;
-    let open = `<${name}`;
-    for (const a of Array.from(item.attributes)) open += ` ${a.name}="${escapeAttribute(a.value)}"`;
+    let open = `<${item.name}`;
+    for (const [name, value] of item.attributes) open += ` ${name}="${escapeAttribute(value)}"`;
     out.push(`${open}>`);
-    stack.push(`</${name}>`);
-    const children = Array.from(item.childNodes);
-    for (let i = children.length - 1; i >= 0; i--) stack.push(children[i]!);
+    stack.push({ raw: `</${item.name}>` });
+    for (let i = item.children.length - 1; i >= 0; i--) {
+      const c = item.children[i]!;
+      stack.push(typeof c === 'string' ? { raw: escapeText(c) } : c);
+    }
   }
-  canvas.svg.remove();
   return out.join('');
 }
-
-/** The part of a DOM node the serialiser reads. */
-interface DomNode {
-  nodeType: number;
-  nodeValue: string | null;
-  localName: string;
-  attributes: ArrayLike<{ name: string; value: string }>;
-  childNodes: ArrayLike<DomNode>;
-}
-
-const ELEMENT_NODE = 1;
-const TEXT_NODE = 3;
 
 // XML 1.0 Char production: tab, newline, carriage return and U+0020 up, less surrogates (lone
 // ones) and U+FFFE/U+FFFF.

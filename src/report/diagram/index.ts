@@ -136,7 +136,8 @@ function planFigures(model: DiagramModel, trees: FigureTree[], capacity: Capacit
   }
   const drawn = trees.filter((t) => keep.has(t.root) || stubs.has(t.root));
   const listed = trees.filter((t) => !keep.has(t.root));
-  return { drawn, listed, stubs, index: listed.length > 0 || drawn.length > INDEX_ABOVE };
+  const referenced = trees.some((t) => t.referencedFrom.length > 0);
+  return { drawn, listed, stubs, index: referenced && (listed.length > 0 || drawn.length > INDEX_ABOVE) };
 }
 
 /**
@@ -198,7 +199,7 @@ function noteFor(t: FigureTree, model: DiagramModel, where: Map<string, { number
     const unique = [...new Set(from)];
     parts.push(`Continued from ${listWords(unique)}${t.reason === 'shared' ? ' (drawn once, referenced by transfer)' : ''}.`);
   }
-  if (t.orientation === 'parts') parts.push('Drawn in parts, a page of inputs each.');
+  if (t.orientation === 'parts' && !listedIn) parts.push('Drawn in parts, a page of inputs each.');
   return parts.length > 0 ? parts.join(' ') : undefined;
 }
 
@@ -254,9 +255,9 @@ function notDrawnTable(number: string, id: string, plan: Plan, model: DiagramMod
     columns: [
       { label: 'Gate', align: 'left', code: true },
       { label: 'Title', align: 'left', width: 2 },
-      { label: 'Logic', align: 'left' },
-      { label: 'P', align: 'right' },
-      { label: 'Inputs (figure or table that continues an input)', align: 'left', width: 4 },
+      { label: 'Logic', align: 'left', width: 'auto' },
+      { label: 'P', align: 'right', width: 'auto' },
+      { label: 'Inputs (figure or table that continues an input)', align: 'left', width: 5 },
     ],
     rows,
     note:
