@@ -2,8 +2,9 @@
  * Writes a study of the "many gates" family for measuring the appendix of a large study (INVENTED
  * structure and numbers; no real facility): M gate subsystems, each failing through its own hoist
  * (two trains of four parts, both trains needed to fail), its local control (a panel or a sensor,
- * or the shared controller it hangs on), or its power (at least two of three shared feeds AND
- * both of two shared generators); the top event is "at least K of the M gates fail".
+ * or the shared controller its block of 20 gates hangs on), or its power (at least two of the three
+ * site feeds lost AND both site generators failed: one of two is enough); or it jams. The top
+ * event is "at least K of the M gates fail".
  *
  *   npx tsx bench/gate-family-study.ts M K DIR [max_nodes]
  *
@@ -16,8 +17,8 @@ import { seededRandom } from './synthetic.js';
 export function writeGateFamilyStudy(dir: string, m: number, k: number, maxNodes?: number): void {
   const rnd = seededRandom(20261204);
   const p = () => (1e-4 * Math.pow(100, rnd())).toPrecision(3);
-  const feeds = 6;
-  const generators = 4;
+  const feeds = 3;
+  const generators = 2;
   const controllers = Math.max(2, Math.ceil(m / 20));
   const events: string[] = ['events:'];
   const event = (id: string, title: string) =>
@@ -39,9 +40,9 @@ export function writeGateFamilyStudy(dir: string, m: number, k: number, maxNodes
     event(`${s}-sensor`, `Gate ${i} position sensor fails`);
     event(`${s}-jam`, `Gate ${i} jams in its guides`);
     gate(`${s}-hoist`, `Gate ${i} hoist fails (both trains)`, `all: [${s}-train-a, ${s}-train-b]`);
-    gate(`${s}-control`, `Gate ${i} control fails`, `any: [${s}-panel, ${s}-sensor, controller-${1 + (i % controllers)}]`);
-    const f = [0, 1, 2].map((d) => `feed-${1 + ((i + d) % feeds)}`);
-    const g = [0, 1].map((d) => `generator-${1 + ((i + d) % generators)}`);
+    gate(`${s}-control`, `Gate ${i} control fails`, `any: [${s}-panel, ${s}-sensor, controller-${1 + Math.floor((i - 1) / 20)}]`);
+    const f = [1, 2, 3].map((d) => `feed-${d}`);
+    const g = [1, 2].map((d) => `generator-${d}`);
     gate(`${s}-feeds`, `Two of gate ${i}'s three feeds lost`, `atleast: 2\n    of: [${f.join(', ')}]`);
     gate(`${s}-standby`, `Gate ${i}'s generators both fail`, `all: [${g.join(', ')}]`);
     gate(`${s}-power`, `No power at gate ${i}`, `all: [${s}-feeds, ${s}-standby]`);
