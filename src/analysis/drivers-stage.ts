@@ -9,6 +9,7 @@ import type { Stage } from './analyze.js';
 import { baseCase } from './case.js';
 import { CaseQuantifier } from './case-quantifier.js';
 import { forecast } from './forecast.js';
+import { notSampledWarning } from './input-warnings.js';
 import { classImportance } from './importance-classes.js';
 import { scenarios } from './scenarios.js';
 import { sensitivity } from './sensitivity.js';
@@ -30,14 +31,7 @@ export const driversStage: Stage = (ctx) => {
   const u = uncertainty(study, quantifier, ctx.options.progress ? { progress: ctx.options.progress } : {});
   if (u.results.length > 0) out.uncertainty = u.results;
   if (u.held.length > 0) {
-    const byKey = new Map(study.parameters.map((p) => [p.key, p]));
-    out.warnings = [
-      ...ctx.results.warnings,
-      ...u.held.map((h) => {
-        const at = byKey.get(h.key)!.at;
-        return { code: 'uncertainty-not-sampled', message: `the uncertainty of '${h.key}' is not sampled: ${h.reason}`, at: { file: at.file, line: at.line } };
-      }),
-    ];
+    out.warnings = [...ctx.results.warnings, ...u.held.map((h) => notSampledWarning(study, h))];
   }
   out.forecast = forecast(study, quantifier);
   return out;

@@ -79,7 +79,7 @@ export function readStudy(folder: string): Study {
     yamlFiles,
     assumptions,
     files,
-    runFit: (fit) => void runFit(fit, readText),
+    runFit: (fit, asOf) => void runFit(fit, readText, asOf),
   });
   // The manifest lists files in a fixed order, whatever order they were read in.
   study.files.sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0));
