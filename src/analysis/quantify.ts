@@ -166,7 +166,8 @@ export function quantifyTops(study: Study, model: LogicModel, compiled: Compiled
       probability: s.probability,
       share: exact > 0 ? s.probability / exact : 0,
     }));
-    const imp = importance(compiled.manager, root, p);
+    // Coherence (no negation reaches the top) lets the measures be clamped to their exact ranges.
+    const imp = importance(compiled.manager, root, p, undefined, { coherent: mcs.coherent });
     const ranked: Importance[] = [];
     imp.birnbaum.forEach((b, v) => {
       // Variables past the study's events are common-cause events (never switches).
@@ -194,6 +195,8 @@ export function quantifyTops(study: Study, model: LogicModel, compiled: Compiled
       capped_exact: mcs.cappedExact,
     };
     if (mcs.truncatedProbability !== undefined) summary.truncated_probability = mcs.truncatedProbability;
+    const listed = ranked.filter((r) => r.birnbaum !== 0 || r.fussell_vesely !== 0);
+    const none = ranked.filter((r) => r.birnbaum === 0 && r.fussell_vesely === 0).map((r) => r.event);
     return {
       id: top.id,
       title: top.title,
@@ -201,7 +204,10 @@ export function quantifyTops(study: Study, model: LogicModel, compiled: Compiled
       probability: { exact, rare_event: bounds.rareEvent, mcub: bounds.mcub, basis: 'exact' },
       cut_sets: cutSets,
       cut_set_summary: summary,
-      importance: ranked.filter((r) => r.birnbaum !== 0 || r.fussell_vesely !== 0),
+      importance: listed,
+      ...(none.length > 0
+        ? { no_effect: { events: none, note: `${none.length === 1 ? 'this event has' : 'these events have'} zero importance: the top does not depend on ${none.length === 1 ? 'it' : 'them'}, so no change to ${none.length === 1 ? 'its' : 'their'} data can change it` } }
+        : {}),
       gate_probabilities: Object.fromEntries(gatesUnder(study, top.gate).map((id) => [id, gateP.get(id)!])),
       bdd_nodes: compiled.manager.size(root),
     };

@@ -145,7 +145,7 @@ export interface Settings {
   seed: number;
   /** Forecast horizon, years. */
   horizon: number;
-  /** Decision-diagram node budget. */
+  /** Decision-diagram node budget: live nodes (garbage is collected), default about 2 GB worth. */
   max_nodes: number;
   /** How a Weibull `exercise` interval turns into a probability: at its end (default) or averaged over it. */
   exercise_basis: 'end' | 'average';
