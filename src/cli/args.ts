@@ -11,6 +11,8 @@ export interface OptionSpec {
   help: string;
   /** Placeholder in the help text, e.g. DIR. */
   value?: string;
+  /** May be given more than once (its value is then a list). */
+  multiple?: boolean;
 }
 
 export interface CommandSpec {
@@ -36,9 +38,9 @@ export function parseCommandArgs(
   name: string,
   spec: CommandSpec,
   argv: string[],
-): { help: true } | { help: false; values: Record<string, string | boolean | undefined>; positionals: string[] } {
-  const options: Record<string, { type: 'string' | 'boolean' }> = { help: { type: 'boolean' } };
-  for (const [flag, o] of Object.entries(spec.options)) options[flag] = { type: o.type };
+): { help: true } | { help: false; values: Record<string, string | boolean | string[] | undefined>; positionals: string[] } {
+  const options: Record<string, { type: 'string' | 'boolean'; multiple?: boolean }> = { help: { type: 'boolean' } };
+  for (const [flag, o] of Object.entries(spec.options)) options[flag] = { type: o.type, ...(o.multiple ? { multiple: true } : {}) };
   checkOptions(name, spec, argv, options);
   let parsed;
   try {
@@ -55,7 +57,7 @@ export function parseCommandArgs(
       `faultbook ${name} ${spec.usage}`,
     );
   }
-  return { help: false, values: parsed.values as Record<string, string | boolean | undefined>, positionals: parsed.positionals };
+  return { help: false, values: parsed.values as Record<string, string | boolean | string[] | undefined>, positionals: parsed.positionals };
 }
 
 /**

@@ -2,12 +2,13 @@
  * `faultbook compare OLD NEW [--out DIR]`: what changed between two revisions of a study and what
  * moved the answer, as comparison.json, comparison.html and comparison.pdf.
  */
-import { resolve } from 'node:path';
+import { join, resolve } from 'node:path';
 import { compareStudies, comparisonJson } from '../review/compare.js';
 import { formatRatio } from '../report/format.js';
-import { readStudy } from '../study/read.js';
+import { confine, readStudy } from '../study/read.js';
 import { helpText, parseCommandArgs, type CommandSpec } from './args.js';
 import { EXIT, type Command } from './io.js';
+import { refuseOutputsThatAreInputs } from './no-clobber.js';
 import { writeOutputs, type OutputFile } from './outputs.js';
 import { formatProbability, printWarnings } from './print.js';
 import { parseFormats, parsePaper } from './run.js';
@@ -50,6 +51,8 @@ const run: Command = async (argv, io) => {
     if (formats.has('html')) files.push({ name: 'comparison.html', data: report.renderHtml(view) });
     if (formats.has('pdf')) files.push({ name: 'comparison.pdf', data: await report.renderPdf(view) });
   }
+  const inputs = [oldStudy, newStudy].flatMap((s) => s.files.map((f) => confine(s.root, f.path)));
+  refuseOutputsThatAreInputs('compare', files.map((f) => join(outDir, f.name)), inputs);
   const written = writeOutputs(outDir, files);
   if (!args.values.quiet) {
     const c = comparison;

@@ -2,13 +2,14 @@
  * `faultbook run STUDY`: read, analyse and render; every output is made in memory first and only
  * then written, each file renamed into place, so a failed run leaves earlier outputs as they were.
  */
-import { basename, resolve } from 'node:path';
+import { basename, join, resolve } from 'node:path';
 import { analyze } from '../analysis/analyze.js';
 import { StudyError } from '../study/errors.js';
-import { readStudy } from '../study/read.js';
+import { confine, readStudy } from '../study/read.js';
 import { OUTPUT_FORMATS, renderOutputs, type OutputFormat } from '../report/outputs.js';
 import { helpText, parseCommandArgs, type CommandSpec } from './args.js';
 import { EXIT, type Command } from './io.js';
+import { refuseOutputsThatAreInputs } from './no-clobber.js';
 import { writeOutputs, type OutputFile } from './outputs.js';
 import { formatProbability, printWarnings } from './print.js';
 import { createProgress } from './progress.js';
@@ -69,6 +70,7 @@ const run: Command = async (argv, io) => {
 
   const made = await renderOutputs(results, study.files, { paper, formats });
   const files: OutputFile[] = [...made].map(([name, data]) => ({ name, data }));
+  refuseOutputsThatAreInputs('run', files.map((f) => join(outDir, f.name)), study.files.map((f) => confine(study.root, f.path)));
   const written = writeOutputs(outDir, files);
   if (!quiet) {
     for (const top of results.tops) {

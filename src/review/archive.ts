@@ -2,6 +2,7 @@
  * A study archive: one .tar.gz holding the study inputs, the outputs of a run, and manifest.json.
  *
  *   faultbook-archive/manifest.json
+ *   faultbook-archive/manifest.sig            (only when signed: Ed25519 over manifest.json, see sign.ts)
  *   faultbook-archive/outputs/results.json, cutsets.csv, appendix.html, appendix.pdf
  *   faultbook-archive/study/<every file the study reader read>
  *
@@ -20,6 +21,7 @@ import type { InputFile, Study } from '../study/types.js';
 import { gzipDeterministic } from './gzip.js';
 import { buildManifest, manifestJson, MANIFEST_NAME, type FileRole, type Manifest } from './manifest.js';
 import { OUTPUT_FORMATS, renderOutputs } from '../report/outputs.js';
+import { signatureFile, signerRecord, SIGNATURE_NAME, type SigningKey } from './sign.js';
 import { writeTar } from './tar.js';
 
 export const ARCHIVE_ROOT = 'faultbook-archive';
@@ -30,6 +32,8 @@ export interface ArchiveOptions {
   paper?: 'a4' | 'letter';
   /** Include appendix.html and appendix.pdf (default: when the report stage is installed). */
   appendix?: boolean;
+  /** Sign the manifest with this key; `name` is recorded in the signed manifest as the signer. */
+  sign?: { key: SigningKey; name: string };
 }
 
 export interface BuiltArchive {
@@ -46,8 +50,11 @@ export async function buildArchive(study: Study, options: ArchiveOptions = {}): 
   const files: { path: string; role: FileRole; data: Buffer }[] = [];
   for (const f of study.files) files.push({ path: `${INPUTS_DIR}/${f.path}`, role: 'input', data: inputBytes(study, f) });
   for (const [name, data] of outputs.files) files.push({ path: `${OUTPUTS_DIR}/${name}`, role: 'output', data });
-  const manifest = buildManifest({ results, files, paper, appendix });
-  const entries = [...files, { path: MANIFEST_NAME, data: Buffer.from(manifestJson(manifest), 'utf8') }].map((f) => ({
+  const signer = options.sign ? signerRecord(options.sign.name, options.sign.key) : undefined;
+  const manifest = buildManifest({ results, files, paper, appendix, ...(signer ? { signer } : {}) });
+  const manifestBytes = Buffer.from(manifestJson(manifest), 'utf8');
+  const signature = options.sign ? [{ path: SIGNATURE_NAME, data: signatureFile(manifestBytes, options.sign.key) }] : [];
+  const entries = [...files, { path: MANIFEST_NAME, data: manifestBytes }, ...signature].map((f) => ({
     path: `${ARCHIVE_ROOT}/${f.path}`,
     data: f.data,
   }));

@@ -22,8 +22,12 @@ export function gunzipChecked(data: Buffer, maxBytes: number): Buffer {
   try {
     return gunzipSync(data, { maxOutputLength: maxBytes });
   } catch (err) {
+    const code = (err as NodeJS.ErrnoException)?.code;
+    if (code === 'ERR_BUFFER_TOO_LARGE' || err instanceof RangeError) {
+      throw new ArchiveFormatError(`the gzip data expands to more than the limit of ${maxBytes} bytes`);
+    }
     const message = err instanceof Error ? err.message : String(err);
-    throw new ArchiveFormatError(`the gzip data cannot be read: ${message}`);
+    throw new ArchiveFormatError(`the gzip data cannot be read (corrupt or truncated): ${message}`);
   }
 }
 

@@ -10,6 +10,7 @@ import { join } from 'node:path';
 import { packageRoot, toolVersion } from '../package.js';
 import type { Results } from '../analysis/results.js';
 import { sha256 } from '../study/read.js';
+import type { ManifestSigner } from './sign.js';
 
 export const MANIFEST_FORMAT = 'faultbook-archive/1';
 export const MANIFEST_NAME = 'manifest.json';
@@ -35,6 +36,8 @@ export interface Manifest {
     lockfile_sha256: string | null;
   };
   study: { title: string; facility: string; revision: string; status: string; as_of: string; issued?: string };
+  /** Who signed the archive (absent when unsigned); the signature over this file is manifest.sig. */
+  signer?: ManifestSigner;
   /** The combined hash of the study inputs, as results.json records it. */
   inputs_sha256: string;
   settings: Record<string, number | string>;
@@ -56,6 +59,7 @@ export function buildManifest(input: {
   files: { path: string; role: FileRole; data: Buffer }[];
   paper: 'a4' | 'letter';
   appendix: boolean;
+  signer?: ManifestSigner;
 }): Manifest {
   const s = input.results.study;
   const seeds: Record<string, number> = {};
@@ -68,6 +72,7 @@ export function buildManifest(input: {
     date: s.issued ?? s.as_of,
     tool: { name: 'faultbook', version: toolVersion, node: process.version, lockfile_sha256: lockfileHash() },
     study,
+    ...(input.signer ? { signer: input.signer } : {}),
     inputs_sha256: input.results.inputs.sha256,
     settings: { ...input.results.settings },
     seeds,
@@ -101,5 +106,11 @@ export function parseManifest(text: string): { ok: true; manifest: Manifest } | 
   }
   if (!m.tool || typeof m.tool.version !== 'string') return { ok: false, message: 'manifest.json does not name the tool version' };
   if (!m.outputs || (m.outputs.paper !== 'a4' && m.outputs.paper !== 'letter')) return { ok: false, message: 'manifest.json does not say how the outputs were made' };
+  if (m.signer !== undefined) {
+    const s = m.signer as Partial<ManifestSigner> | null;
+    if (!s || typeof s.name !== 'string' || s.algorithm !== 'Ed25519' || typeof s.key_sha256 !== 'string' || typeof s.public_key !== 'string') {
+      return { ok: false, message: 'manifest.json has a "signer" that does not name an Ed25519 key' };
+    }
+  }
   return { ok: true, manifest: m as Manifest };
 }

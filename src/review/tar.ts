@@ -13,7 +13,10 @@
 
 const BLOCK = 512;
 
-/** Thrown for anything that is not a well-formed, safe archive of ours (the command exits 2). */
+/**
+ * Thrown for anything that is not a well-formed, safe archive of ours: truncated, corrupt, hostile
+ * or over a limit. verify reports it as a failed verification (exit 3).
+ */
 export class ArchiveFormatError extends Error {
   constructor(message: string) {
     super(message);
@@ -114,15 +117,24 @@ const DEFAULT_LIMITS: TarReadLimits = { maxEntries: 10_000, maxBytes: 512 * 1024
 
 /**
  * The regular files of a tar archive, refusing anything unsafe or unexpected: links (hard or
- * symbolic), devices, FIFOs, extended (pax) and GNU long-name headers, absolute paths, `..` or `.`
- * components, backslashes, duplicate paths, bad checksums, truncation. Directory entries are
- * accepted and skipped (folders are made from the file paths).
+ * symbolic), devices, FIFOs, absolute paths, `..` components, backslashes, duplicate paths, a file
+ * that is also a folder of another entry, bad checksums, truncation.
+ *
+ * What the standard tar tool adds when someone unpacks an archive and packs it again is read, not
+ * refused: a leading `./` on every name, directory entries (skipped: folders come from the file
+ * paths), GNU long-name entries and pax headers that carry a long path (other pax keys are
+ * ignored, a pax `size` or `linkpath` is refused, as are global pax headers).
  */
 export function readTar(tar: Buffer, limits: TarReadLimits = DEFAULT_LIMITS): TarFile[] {
   const files: TarFile[] = [];
   const seen = new Set<string>();
+  const folders = new Set<string>();
   let total = 0;
   let offset = 0;
+  /** A path given by a GNU long-name entry or a pax header, for the header that follows. */
+  let longPath: string | undefined;
+  /** Whether the last header was an extended one (GNU long name, pax), which must be followed by an entry. */
+  let extended = false;
   for (;;) {
     if (offset + BLOCK > tar.length) throw new ArchiveFormatError('the tar data ends without its end-of-archive blocks (truncated?)');
     const block = tar.subarray(offset, offset + BLOCK);
@@ -135,35 +147,102 @@ export function readTar(tar: Buffer, limits: TarReadLimits = DEFAULT_LIMITS): Ta
     if (checksum(copy) !== stored) throw new ArchiveFormatError(`header checksum mismatch at byte ${offset}`);
     const name = cString(block, 0, 100);
     const prefix = magic === 'ustar\u0000' ? cString(block, 345, 155) : '';
-    const path = prefix ? `${prefix}/${name}` : name;
+    const rawPath = longPath ?? (prefix ? `${prefix}/${name}` : name);
+    longPath = undefined;
+    extended = false;
     const size = parseOctal(block, 124, 12, 'size');
     const type = String.fromCharCode(block[156]!);
     offset += BLOCK;
     const dataEnd = offset + size;
-    if (dataEnd > tar.length) throw new ArchiveFormatError(`entry '${path}' is truncated`);
+    if (dataEnd > tar.length) throw new ArchiveFormatError(`entry '${rawPath}' is truncated`);
+    if (size > limits.maxBytes) throw new ArchiveFormatError(`entry '${rawPath}' holds ${size} bytes, more than the limit of ${limits.maxBytes}`);
+    const data = tar.subarray(offset, dataEnd);
 
     if (type === '1' || type === '2') {
-      throw new ArchiveFormatError(`entry '${path}' is a ${type === '1' ? 'hard' : 'symbolic'} link to '${cString(block, 157, 100)}'; archives of studies hold regular files only`);
+      throw new ArchiveFormatError(`entry '${rawPath}' is a ${type === '1' ? 'hard' : 'symbolic'} link to '${cString(block, 157, 100)}'; archives of studies hold regular files only`);
     }
-    if (type === 'x' || type === 'g' || type === 'L' || type === 'K') {
-      throw new ArchiveFormatError(`entry '${path}' is an extended header (type '${type}'), which faultbook archives never contain`);
-    }
-    if (type === '5') {
-      checkPath(path.replace(/\/$/, ''), true);
+    if (type === 'L') {
+      if (size > 4096) throw new ArchiveFormatError(`a long-name entry of ${size} bytes at byte ${offset - BLOCK}: more than a path needs`);
+      longPath = cString(data, 0, data.length);
+      extended = true;
+    } else if (type === 'x') {
+      if (size > 65536) throw new ArchiveFormatError(`a pax header of ${size} bytes at byte ${offset - BLOCK}: more than a path needs`);
+      longPath = paxPath(data, rawPath);
+      extended = true;
+    } else if (type === 'g' || type === 'K') {
+      throw new ArchiveFormatError(`entry '${rawPath}' is a ${type === 'g' ? 'global pax header' : 'GNU long link name'} (type '${type}'), which study archives never need`);
+    } else if (type === '5') {
+      const path = normalisePath(rawPath.replace(/\/+$/, ''));
+      if (path !== '') {
+        checkPath(path, true);
+        folders.add(path);
+      }
     } else if (type === '0' || type === '\u0000' || type === '7') {
+      const path = normalisePath(rawPath);
       checkPath(path, false);
       if (seen.has(path)) throw new ArchiveFormatError(`entry '${path}' appears twice`);
       seen.add(path);
       total += size;
       if (files.length + 1 > limits.maxEntries) throw new ArchiveFormatError(`more than ${limits.maxEntries} entries`);
       if (total > limits.maxBytes) throw new ArchiveFormatError(`more than ${limits.maxBytes} bytes of data`);
-      files.push({ path, data: Buffer.from(tar.subarray(offset, dataEnd)) });
+      files.push({ path, data: Buffer.from(data) });
     } else {
-      throw new ArchiveFormatError(`entry '${path}' has type '${type}' (a device, FIFO or other special file); archives of studies hold regular files only`);
+      throw new ArchiveFormatError(`entry '${rawPath}' has type '${type}' (a device, FIFO or other special file); archives of studies hold regular files only`);
     }
     offset = dataEnd + ((BLOCK - (size % BLOCK)) % BLOCK);
   }
+  if (extended) throw new ArchiveFormatError('the archive ends with an extended header that no entry follows (truncated?)');
+  refuseFileFolderClashes(files, folders);
   return files;
+}
+
+/**
+ * The path a standard tar tool meant: without the `./` it puts in front of every name when packing
+ * a folder as `.` (and `.` itself, the folder being packed, becomes the empty path).
+ */
+function normalisePath(path: string): string {
+  let p = path;
+  while (p.startsWith('./')) p = p.slice(2);
+  return p === '.' ? '' : p;
+}
+
+/** The `path` of a pax extended header (records `LEN key=value\n`); keys that could change what is read are refused. */
+function paxPath(data: Buffer, where: string): string | undefined {
+  let path: string | undefined;
+  let at = 0;
+  while (at < data.length) {
+    if (data[at] === 0) break;
+    const space = data.indexOf(0x20, at);
+    const length = space === -1 ? NaN : Number(data.toString('latin1', at, space));
+    if (!Number.isInteger(length) || length <= 0 || at + length > data.length || data[at + length - 1] !== 0x0a) {
+      throw new ArchiveFormatError(`pax header '${where}' is malformed at byte ${at} of its records`);
+    }
+    const record = data.toString('utf8', space + 1, at + length - 1);
+    const eq = record.indexOf('=');
+    const key = eq === -1 ? record : record.slice(0, eq);
+    const value = eq === -1 ? '' : record.slice(eq + 1);
+    if (key === 'path') path = value;
+    else if (key === 'size' || key === 'linkpath' || key.startsWith('GNU.sparse')) {
+      throw new ArchiveFormatError(`pax header '${where}' sets '${key}', which study archives never need`);
+    }
+    at += length;
+  }
+  return path;
+}
+
+/** `study.yaml` and `study.yaml/x` cannot both be unpacked: a file cannot also be a folder. */
+function refuseFileFolderClashes(files: TarFile[], folders: Set<string>): void {
+  const filePaths = new Set(files.map((f) => f.path));
+  for (const folder of folders) {
+    if (filePaths.has(folder)) throw new ArchiveFormatError(`'${folder}' is both a file and a folder in the archive: a malformed archive`);
+  }
+  for (const f of files) {
+    const parts = f.path.split('/');
+    for (let i = 1; i < parts.length; i++) {
+      const parent = parts.slice(0, i).join('/');
+      if (filePaths.has(parent)) throw new ArchiveFormatError(`'${parent}' is both a file and the folder of '${f.path}' in the archive: a malformed archive`);
+    }
+  }
 }
 
 /** A path an archive may hold: relative, `/`-separated, no `..`, `.` or empty components, no backslash or NUL. */

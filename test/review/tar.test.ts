@@ -1,12 +1,22 @@
 import { execFileSync } from 'node:child_process';
-import { mkdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { crc32 as zlibCrc32, gunzipSync } from 'node:zlib';
 import fc from 'fast-check';
-import { describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { crc32, gunzipChecked, gzipDeterministic } from '../../src/review/gzip.js';
 import { ArchiveFormatError, header, readTar, writeTar } from '../../src/review/tar.js';
-import { tempDir } from '../cli/helpers.js';
+import { tempDir as makeTempDir } from '../cli/helpers.js';
+
+const made: string[] = [];
+function tempDir(): string {
+  const dir = makeTempDir();
+  made.push(dir);
+  return dir;
+}
+afterAll(() => {
+  for (const dir of made) rmSync(dir, { recursive: true, force: true });
+});
 
 const files = [
   { path: 'top/b.txt', data: Buffer.from('second\n') },
@@ -15,6 +25,18 @@ const files = [
   { path: 'top/empty', data: Buffer.alloc(0) },
 ];
 const MTIME = Date.UTC(2026, 10, 20) / 1000;
+
+/** pax records `LEN key=value\n` (POSIX.1-2001 pax format; LEN counts the whole record, its own digits included). */
+function paxRecords(records: Record<string, string>): Buffer {
+  let out = '';
+  for (const [k, v] of Object.entries(records)) {
+    const body = ` ${k}=${v}\n`;
+    let len = Buffer.byteLength(body) + 1;
+    while (String(len).length + Buffer.byteLength(body) !== len) len = String(len).length + Buffer.byteLength(body);
+    out += `${len}${body}`;
+  }
+  return Buffer.from(out, 'utf8');
+}
 
 /** Raw tar bytes from header blocks and data, for archives our writer refuses to make. */
 function rawTar(entries: { path: string; type: string; data?: Buffer; link?: string }[]): Buffer {
@@ -70,7 +92,15 @@ describe('ustar reader refuses what a study archive never holds', () => {
     ['a symbolic link', [{ path: 'top/link', type: '2', link: '/etc/passwd' }], /symbolic link/],
     ['a hard link', [{ path: 'top/link', type: '1', link: 'top/a' }], /hard link/],
     ['a device file', [{ path: 'top/dev', type: '3' }], /device/],
-    ['a pax extended header', [{ path: 'top/PaxHeader', type: 'x' }], /extended header/],
+    ['a pax extended header that nothing follows', [{ path: 'top/PaxHeader', type: 'x' }], /extended header that no entry follows/],
+    ['a pax header that sets a link target', [{ path: 'top/PaxHeader', type: 'x', data: paxRecords({ linkpath: '/etc/passwd' }) }, { path: 'top/a', type: '0' }], /linkpath/],
+    ['a global pax header', [{ path: 'pax_global_header', type: 'g', data: paxRecords({ comment: 'x' }) }, { path: 'top/a', type: '0' }], /global pax header/],
+    ['a pax path climbing out with ..', [{ path: 'top/PaxHeader', type: 'x', data: paxRecords({ path: 'top/../../x' }) }, { path: 'top/a', type: '0' }], /\.\./],
+    ['a GNU long name that is absolute', [{ path: '././@LongLink', type: 'L', data: Buffer.from('/etc/cron.d/x\0') }, { path: 'top/a', type: '0' }], /absolute/],
+    ['./ in front of ..', [{ path: './../x', type: '0' }], /\.\./],
+    ['a link behind ./', [{ path: './top/link', type: '2', link: '../../x' }], /symbolic link/],
+    ['a file that is also the folder of another file', [{ path: 'top/study.yaml', type: '0' }, { path: 'top/study.yaml/x', type: '0' }], /'top\/study.yaml' is both a file and the folder of 'top\/study.yaml\/x'/],
+    ['a folder entry that is also a file', [{ path: 'top/a', type: '0' }, { path: 'top/a/', type: '5' }], /both a file and a folder/],
     ['a duplicate path', [{ path: 'top/a', type: '0' }, { path: 'top/a', type: '0' }], /twice/],
   ])('%s', (_what, entries, message) => {
     expect(() => readTar(rawTar(entries))).toThrow(message);
@@ -91,6 +121,30 @@ describe('ustar reader refuses what a study archive never holds', () => {
     expect(() => readTar(bad)).toThrow(/checksum/);
     expect(() => readTar(good.subarray(0, 700))).toThrow(/truncated/);
     expect(() => readTar(Buffer.from('not a tar at all'.repeat(64)))).toThrow(ArchiveFormatError);
+  });
+});
+
+describe('ustar reader reads what the standard tar tool writes when an archive is repacked', () => {
+  // GNU tar (an independent writer) packs a folder as `.`: every name starts with `./`, folders get
+  // entries of their own, and names over 100 bytes take a GNU long-name entry or a pax header.
+  const longPath = `top/${'long-folder-name/'.repeat(6)}deep.csv`;
+  function packed(format: 'gnu' | 'pax' | 'ustar'): Buffer {
+    const dir = tempDir();
+    for (const f of files) {
+      mkdirSync(join(dir, ...f.path.split('/').slice(0, -1)), { recursive: true });
+      writeFileSync(join(dir, ...f.path.split('/')), f.data);
+    }
+    return execFileSync('tar', ['--create', `--format=${format}`, '--file', '-', '--directory', dir, '.']);
+  }
+
+  it.each(['gnu', 'pax', 'ustar'] as const)('reads every file with its bytes from a folder packed as . in %s format', (format) => {
+    const tar = packed(format);
+    const listing = execFileSync('tar', ['--list', '--file', '-'], { input: tar, encoding: 'utf8' });
+    expect(listing).toContain('./top/');
+    expect(listing).toContain(`./${longPath}`);
+    const read = readTar(tar);
+    expect(read.map((f) => f.path).sort()).toEqual(files.map((f) => f.path).sort());
+    for (const f of files) expect(read.find((r) => r.path === f.path)!.data.equals(f.data)).toBe(true);
   });
 });
 

@@ -5,6 +5,7 @@ import { PAGES, contentBox, pdfPageSize } from '../paper.js';
 import type { Appendix, Block, CalloutBlock, FigureBlock, KeyValueBlock, PreBlock, Run, Section, TableBlock } from '../view.js';
 import { markdownToPdf } from './markdown.js';
 import { breakLongWordsIn } from './long-words.js';
+import { installTagging, markStructure } from './tagging.js';
 
 /**
  * The appendix as PDF through pdfmake: embedded Roboto, a bookmark (outline) entry per section and
@@ -32,7 +33,9 @@ const TONE: Record<CalloutBlock['tone'], { edge: string; fill: string }> = {
 
 export async function renderPdf(view: Appendix): Promise<Buffer> {
   prepare();
-  const doc = pdfmake.createPdf(breakLongWordsIn(documentDefinition(view)));
+  const definition = breakLongWordsIn(documentDefinition(view));
+  markStructure(definition as Parameters<typeof markStructure>[0]);
+  const doc = pdfmake.createPdf(definition);
   return doc.getBuffer();
 }
 
@@ -46,6 +49,26 @@ function prepare(): void {
   pdfmake.setUrlAccessPolicy(() => false);
   pdfmake.setLocalAccessPolicy((path) => allowed.has(path));
   pdfmake.addTableLayouts(LAYOUTS);
+  installTagging();
+}
+
+/**
+ * PDF/A-2b (ISO 19005-2, level B: the pages look the same in decades). pdfmake hands these to its
+ * PDF library, which then writes the XMP metadata with the pdfaid part/conformance declaration and
+ * an sRGB output intent whose ICC profile (sRGB2014, International Color Consortium) ships inside
+ * that library, so it is embedded byte for byte the same every run. Fonts are embedded already
+ * (Roboto subsets). `tagged` asks for MarkInfo and a structure tree; tagging.ts fills the tree
+ * (headings, tables, figures), which pdfmake alone would leave empty.
+ */
+const ARCHIVAL = { version: '1.7', subset: 'PDF/A-2b', tagged: true, displayTitle: true } as const;
+
+/**
+ * The PDF library copies metadata strings into the XMP packet without XML escaping, so an `&` or
+ * `<` in a title would make the packet ill-formed XML; such characters are written as their
+ * full-width look-alikes in the metadata only (the pages show the text as written).
+ */
+function xmpSafe(text: string): string {
+  return text.replace(/&/g, '\uff06').replace(/</g, '\uff1c').replace(/>/g, '\uff1e');
 }
 
 /** The study's date as a fixed instant (midnight UTC), so metadata never depends on the clock or zone. */
@@ -70,18 +93,20 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
   return {
     pageSize: pdfPageSize(view.paper),
     pageMargins: [left, top, right, bottom],
+    // No modDate: PDF/A wants every Info entry mirrored in the XMP metadata, and the PDF library
+    // writes no xmp:ModifyDate. The creation date alone is the study's date.
     info: {
-      title: view.meta.title,
-      author: view.meta.author,
-      subject: view.meta.subject,
-      keywords: view.meta.keywords,
-      creator: view.meta.creator,
-      producer: view.meta.creator,
+      title: xmpSafe(view.meta.title),
+      author: xmpSafe(view.meta.author),
+      subject: xmpSafe(view.meta.subject),
+      keywords: xmpSafe(view.meta.keywords),
+      creator: xmpSafe(view.meta.creator),
+      producer: xmpSafe(view.meta.creator),
       creationDate: date,
-      modDate: date,
     },
     language: view.language,
     compress: true,
+    ...ARCHIVAL,
     ...(view.cover.draft
       ? { watermark: { text: statusText, color: '#a11d21', opacity: 0.07, bold: true, fontSize: 110 } }
       : {}),
