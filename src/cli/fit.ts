@@ -48,7 +48,7 @@ const run: Command = async (argv, io) => {
     if (err instanceof FitError) throw new StudyError(`${basename(file)}: ${err.message}`, undefined, err.hint ?? 'life records with enough failures to fit');
     throw err;
   }
-  io.stdout(args.values.json ? JSON.stringify(fit, null, 2) + '\n' : formatFit(fit, unit ? 'years' : undefined));
+  io.stdout(args.values.json ? JSON.stringify(fit, null, 2) + '\n' : formatFit(fit, 'years'));
   return EXIT.ok;
 };
 

@@ -136,13 +136,14 @@ function recompute(byPath: Map<string, TarFile>, entries: TarFile[], manifest: M
         compared = countNumbers(recomputed);
         const diff = diffJson(archived, recomputed, { ignore: ['$.tool.version'], limit: SHOWN_DIFFERENCES });
         if (diff.count > 0) {
+          const verb = diff.count === 1 ? 'differs' : 'differ';
           const what = diff.numeric === diff.count ? `${diff.count} number${diff.count === 1 ? '' : 's'}` : `${diff.count} value${diff.count === 1 ? '' : 's'} (${diff.numeric} of them numbers)`;
           differences.push({
             kind: sameTool ? 'recomputed-differs' : 'tool-version',
             file: `${OUTPUTS_DIR}/results.json`,
             message: sameTool
-              ? `${OUTPUTS_DIR}/results.json: recomputing from the archived inputs gives different results: ${what} differ`
-              : `${OUTPUTS_DIR}/results.json: faultbook ${toolVersion} gives different numbers from faultbook ${manifest.tool.version}, which made the archive: ${what} differ`,
+              ? `${OUTPUTS_DIR}/results.json: recomputing from the archived inputs gives different results: ${what} ${verb}`
+              : `${OUTPUTS_DIR}/results.json: faultbook ${toolVersion} gives different numbers from faultbook ${manifest.tool.version}, which made the archive: ${what} ${verb}`,
             details: diff.differences.map((d) => `${d.path}: archived ${showValue(d.expected)}, recomputed ${showValue(d.actual)}`),
           });
         }

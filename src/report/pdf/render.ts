@@ -60,9 +60,11 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
   const date = studyDate(view.meta.date);
   const statusText = view.header.status.toUpperCase();
   const content: Content[] = [cover(view)];
+  // The contents follow the front matter: document control, then the key findings where present.
+  const lastFront = view.sections.some((s) => s.id === 'sec-key-findings') ? 'sec-key-findings' : 'sec-title-block';
   for (const section of view.sections) {
     content.push(sectionContent(section, view));
-    if (section.id === 'sec-title-block') content.push(contents());
+    if (section.id === lastFront) content.push(contents(lastFront === 'sec-key-findings'));
   }
   return {
     pageSize: pdfPageSize(view.paper),
@@ -182,6 +184,7 @@ function cover(view: Appendix): Content {
   return {
     stack: [
       { canvas: [{ type: 'rect', x: 0, y: 0, w: width, h: 4, color: ACCENT }] },
+      ...(c.logo ? [{ image: `data:${c.logo.media_type};base64,${c.logo.base64}`, fit: [160, 48], margin: [0, 14, 0, 0] } as Content] : []),
       { text: c.facility.toUpperCase(), style: 'coverFacility', margin: [0, 18, 0, 0] },
       { text: c.title, style: 'coverTitle' },
       { text: c.kind, style: 'coverKind' },
@@ -193,13 +196,23 @@ function cover(view: Appendix): Content {
         ],
         style: 'coverMeta',
       },
+      ...(c.client || c.consultant
+        ? [
+            {
+              text: [c.client ? `Client: ${c.client}` : '', c.client && c.consultant ? '     ' : '', c.consultant ? `Prepared by: ${c.consultant}` : ''].join(''),
+              style: 'coverMeta',
+              margin: [0, 3, 0, 0],
+            } as Content,
+          ]
+        : []),
       { canvas: [{ type: 'line', x1: 0, y1: 10, x2: width, y2: 10, lineWidth: 0.5, lineColor: RULE }], margin: [0, 0, 0, 4] },
     ],
   };
 }
 
-function contents(): Content {
+function contents(newPage: boolean): Content {
   return {
+    ...(newPage ? { pageBreak: 'before' } : {}),
     toc: {
       title: { text: 'Contents', style: 'tocTitle' },
       numberStyle: { color: MUTED },
@@ -259,6 +272,7 @@ function blockContent(block: Block, section: Section, view: Appendix): Content {
 function runs(list: Run[]): Content[] {
   return list.map((r) => ({
     text: r.text,
+    ...(r.link ? { linkToDestination: r.link, color: ACCENT } : {}),
     ...(r.strong ? { bold: true } : {}),
     ...(r.em ? { italics: true } : {}),
     ...(r.code ? { style: 'id' } : {}),

@@ -51,7 +51,7 @@ function fitBlocks(fit: FitResult, results: Results, ctx: BuildContext): Block[]
     table({
       id: anchor('tab-fit', fit.id),
       number: ctx.nextTable(),
-      caption: `Weibull fit of ${fit.id} by ${METHOD_WORDS[fit.method]}: estimates and one-sided ${levelText(fit.level)} bounds (Fisher matrix)`,
+      caption: `Weibull fit of ${fit.id} by ${METHOD_WORDS[fit.method]}: estimates and one-sided ${levelText(fit.level)} normal-approximation (Fisher information) bounds`,
       columns: [
         col('Quantity', 'left', { width: 3 }),
         col('Estimate', 'right', { width: 'auto' }),

@@ -1,7 +1,7 @@
 import type { ParameterResult } from '../../analysis/results.js';
-import { col, para, row, strong, subheading, table } from '../blocks.js';
+import { col, counted, para, row, strong, subheading, table } from '../blocks.js';
 import type { SectionRule } from '../context.js';
-import { formatCount, formatQuantity } from '../format.js';
+import { formatAsWritten, formatCount, formatQuantity } from '../format.js';
 import type { Block } from '../view.js';
 
 /**
@@ -14,7 +14,7 @@ export const provenance: SectionRule = (results, ctx) => {
   const blocks: Block[] = [];
   blocks.push(
     para(
-      `The study states ${formatCount(results.parameters.length)} numbers and cites ${formatCount(results.sources.length)} sources. `,
+      `The study states ${counted(results.parameters.length, 'number')} and cites ${counted(results.sources.length, 'source')}. `,
       ...(unsourced.length > 0
         ? [strong(`${formatCount(unsourced.length)} ${unsourced.length === 1 ? 'number cites' : 'numbers cite'} no source`), ' and ', unsourced.length === 1 ? 'is' : 'are', ' flagged below; each needs a reference or an explicit engineering judgement before the study is issued.']
         : ['Every number cites a source.']),
@@ -27,7 +27,6 @@ export const provenance: SectionRule = (results, ctx) => {
       columns: [
         col('Parameter', 'left', { code: true, width: 'auto' }),
         col('As written', 'right', { width: 'auto' }),
-        col('Used as', 'right', { width: 'auto' }),
         col('Source', 'left', { code: true, width: 'auto' }),
         col('Where in the source', 'left', { width: 2 }),
         col('Range / uncertainty', 'left', { width: 2 }),
@@ -38,7 +37,6 @@ export const provenance: SectionRule = (results, ctx) => {
           [
             p.key,
             p.written,
-            formatQuantity(p.quantity, p.value),
             p.source ?? 'UNSOURCED',
             [p.note, p.fit ? `fitted (${p.fit})` : undefined, `${p.at.file}:${p.at.line}`].filter(Boolean).join('; '),
             spreadText(p),
@@ -67,7 +65,8 @@ export const provenance: SectionRule = (results, ctx) => {
         rows: results.sources.map((s) =>
           row([
             s.id,
-            s.invented ? `${s.title} (invented)` : s.title,
+            // A title that already says it is invented is not told so twice.
+            s.invented && !/\binvented\b/i.test(s.title) ? `${s.title} (invented)` : s.title,
             s.reference ?? '—',
             s.note ?? '—',
             s.used_by.join(', ') || 'not cited by any number',
@@ -84,13 +83,15 @@ const IN_UNIT = ['median', 'mean', 'sd', 'min', 'max', 'mode', 'scale'];
 /** Range for sensitivity and the uncertainty distribution, as the analysis recorded them. */
 function spreadText(p: ParameterResult): string {
   const parts: string[] = [];
-  if (p.range) parts.push(`range ${formatQuantity(p.quantity, p.range[0])} – ${formatQuantity(p.quantity, p.range[1])}`);
-  if (p.uncertainty) {
+  if (p.range) parts.push(`range ${formatAsWritten(p.quantity, p.range[0], p.written)} – ${formatAsWritten(p.quantity, p.range[1], p.written)}`);
+  if (p.uncertainty?.['kind'] === 'fit') {
+    parts.push(`sampled with the other parameters of fit ${String(p.uncertainty['fit'])}`);
+  } else if (p.uncertainty) {
     // Keys follow the study's distribution fields (DESIGN.md): location/spread values are in the
     // parameter's own unit, shape-like ones (error factor, a, b, shape) are plain numbers.
     const { kind, ...fields } = p.uncertainty;
     const described = Object.entries(fields).map(
-      ([k, v]) => `${k} ${typeof v === 'number' ? formatQuantity(IN_UNIT.includes(k) ? p.quantity : 'number', v) : v}`,
+      ([k, v]) => `${k} ${typeof v === 'number' ? (IN_UNIT.includes(k) ? formatAsWritten(p.quantity, v, p.written) : formatQuantity('number', v)) : v}`,
     );
     parts.push(`${kind !== undefined ? String(kind) : 'distribution'}: ${described.join(', ')}`);
   }
