@@ -139,8 +139,8 @@ const STYLES: TDocumentDefinitions['styles'] = {
   calloutText: { fontSize: 8.5, margin: [0, 0, 0, 3] },
   listingLabel: { fontSize: 8.5, bold: true, color: '#263a5a' },
   listingDetail: { fontSize: 7, color: MUTED },
-  listing: { fontSize: 7, lineHeight: 1.1, preserveLeadingSpaces: true },
-  lineNumber: { fontSize: 7, color: '#9aa3ad', alignment: 'right' },
+  listing: { fontSize: 6.5, lineHeight: 1.0, preserveLeadingSpaces: true },
+  lineNumber: { fontSize: 6.5, lineHeight: 1.0, color: '#9aa3ad', alignment: 'right' },
   codeBlock: { fontSize: 7.5, preserveLeadingSpaces: true, margin: [8, 2, 0, 6] },
   list: { margin: [0, 0, 0, 6] },
   quote: { margin: [12, 0, 0, 6], color: MUTED },
@@ -173,8 +173,8 @@ const LAYOUTS: Record<string, CustomTableLayout> = {
     vLineColor: () => RULE,
     paddingLeft: (i) => (i === 0 ? 4 : 6),
     paddingRight: () => 4,
-    paddingTop: () => 0.6,
-    paddingBottom: () => 0.6,
+    paddingTop: () => 0.2,
+    paddingBottom: () => 0.2,
   },
 };
 

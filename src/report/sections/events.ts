@@ -41,7 +41,7 @@ export const events: SectionRule = (results, ctx) => {
     id: 'sec-events',
     number: ctx.number,
     title: 'Basic events',
-    newPage: true,
+
     blocks: [
       para(
         `The ${formatCount(results.events.length)} basic ${results.events.length === 1 ? 'event' : 'events'} of the model, each number as written in the study. `,

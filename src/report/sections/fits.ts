@@ -1,5 +1,5 @@
 import type { FitBound, FitResult, Results } from '../../analysis/results.js';
-import { callout, code, col, keyValues, listWords, para, row, strong, subheading, table } from '../blocks.js';
+import { callout, code, col, keyValues, listWords, para, row, strong, subheading, table, xref } from '../blocks.js';
 import { METHOD_WORDS, levelText, weibullPlot } from '../charts/weibull-plot.js';
 import { anchor, type BuildContext, type SectionRule } from '../context.js';
 import { formatCount, formatDuration, formatRatio } from '../format.js';
@@ -24,24 +24,15 @@ export const fits: SectionRule = (results, ctx) => {
   if (list.length === 0) return null;
   const blocks: Block[] = [
     para(
-      `Some parameters of this study come from field life records: ${list.length === 1 ? 'one data set, fitted' : `${formatCount(list.length)} data sets, each fitted`} `,
-      'with a Weibull distribution. A record is a failure (the unit failed in the mode studied) or a suspension (still in ',
-      'service, or removed for another reason): a suspension says only that the life was longer than its age, and the fit ',
-      'uses it as such.',
-    ),
-    para(
-      strong('Reading the plots: '),
-      'on this Weibull paper a Weibull distribution is a straight line, so each circle is one failure at its median rank, ',
-      'the solid line is the fit (its slope is the shape β and it crosses the darker 63.2% line at the scale η), the two ',
-      'dashed lines bound F(t) at the stated level, and circles that bend away from the line in a pattern rather than ',
-      'scatter about it mean one Weibull does not describe the records well.',
+      `${list.length === 1 ? 'One data set of field life records, fitted' : `${formatCount(list.length)} data sets of field life records, each fitted`} with a Weibull distribution; suspensions count as lives known only to exceed their age. `,
       ...(list.some((f) => f.location !== undefined)
-        ? [' A three-parameter fit (with a failure-free life γ) is drawn against the lives as recorded, so its line curves down towards γ at short lives.']
+        ? ['A three-parameter fit (with a failure-free life γ) is drawn against the lives as recorded, so its line curves down towards γ at short lives. ']
         : []),
+      xref('methods', 'Method and how to read the plots: {}.', 'method-fits'),
     ),
   ];
   for (const fit of list) blocks.push(...fitBlocks(fit, results, ctx));
-  return { id: 'sec-fits', number: ctx.number, title: 'Life-data fits', newPage: true, blocks };
+  return { id: 'sec-fits', number: ctx.number, title: 'Life-data fits', blocks };
 };
 
 function fitBlocks(fit: FitResult, results: Results, ctx: BuildContext): Block[] {

@@ -1,7 +1,7 @@
 import type { QuantityUncertainty, Results } from '../../analysis/results.js';
 import { code, col, para, row, strong, subheading, table, type Part } from '../blocks.js';
 import type { SectionRule } from '../context.js';
-import { formatCount, formatProbability, formatQuantity, formatRatio } from '../format.js';
+import { formatAsWritten, formatCount, formatProbability, formatRatio } from '../format.js';
 import type { Block, TableRow } from '../view.js';
 
 /**
@@ -118,12 +118,12 @@ function driverParagraphs(results: Results, see: (name: string) => string): Bloc
   for (const t of results.tops) {
     const ranked = [...(t.importance ?? [])].sort((a, b) => b.fussell_vesely - a.fussell_vesely || (a.event < b.event ? -1 : 1)).slice(0, 3);
     if (ranked.length === 0) continue;
-    const parts: Part[] = [strong(`Largest contributors to ${t.id}: `)];
+    const parts: Part[] = [strong(`Largest contributors to ${t.id}${seeText(see('importance'))}: `)];
     ranked.forEach((i, n) => {
       if (n > 0) parts.push(n === ranked.length - 1 ? ' and ' : ', ');
       parts.push(code(i.event), ` (FV ${formatProbability(i.fussell_vesely)})`);
     });
-    parts.push(`${seeText(see('importance'))}.`);
+    parts.push('.');
     blocks.push(para(...parts));
   }
   const lever = scenarioLever(results);
@@ -131,29 +131,29 @@ function driverParagraphs(results: Results, see: (name: string) => string): Bloc
     const { s, t, top } = lever;
     blocks.push(
       para(
-        strong('Biggest scenario lever: '),
+        strong(`Biggest scenario lever${seeText(see('scenarios'))}: `),
         code(s.id),
         ` (${s.title}) ${t.ratio >= 1 ? 'raises' : 'lowers'} `,
         code(top),
-        ` to ${formatProbability(t.probability)}, ${formatRatio(t.ratio)} × the base case${seeText(see('scenarios'))}.`,
+        ` to ${formatProbability(t.probability)}, ${formatRatio(t.ratio)} × the base case.`,
       ),
     );
   }
   const swing = sensitivityLever(results);
   if (swing) {
     const { s, row: r } = swing;
-    const quantity = results.parameters.find((p) => p.key === r.key)?.quantity ?? 'number';
+    const p = results.parameters.find((x) => x.key === r.key);
     const lo = Math.min(r.low, r.high);
     const hi = Math.max(r.low, r.high);
     blocks.push(
       para(
-        strong('Most sensitive parameter: '),
+        strong(`Most sensitive parameter${seeText(see('sensitivity'))}: `),
         code(r.key),
-        ` — between ${formatQuantity(quantity, r.low_value)} and ${formatQuantity(quantity, r.high_value)} it moves `,
+        ` — between ${formatAsWritten(p?.quantity ?? 'number', r.low_value, p?.written)} and ${formatAsWritten(p?.quantity ?? 'number', r.high_value, p?.written)} it moves `,
         code(s.top),
         ` from ${formatProbability(r.low)} to ${formatProbability(r.high)}`,
         lo > 0 ? `, a factor of ${formatRatio(hi / lo)}` : '',
-        `${seeText(see('sensitivity'))}.`,
+        '.',
       ),
     );
   }
@@ -161,7 +161,7 @@ function driverParagraphs(results: Results, see: (name: string) => string): Bloc
 }
 
 function seeText(number: string): string {
-  return number ? ` (see ${number})` : '';
+  return number ? ` (section ${number})` : '';
 }
 
 function scenarioLever(results: Results) {
@@ -199,17 +199,20 @@ function notCovered(results: Results, see: (name: string) => string): Block[] {
     const lower = Math.min(...aeps.map((a) => Math.min(a[0], a[1])));
     blocks.push(
       para(
-        strong(`Loads outside the ranges of ${t.id}: `),
-        `floods with an annual exceedance probability above ${formatProbability(upper)} or below ${formatProbability(lower)} `,
-        `(rarer than the last range) are not counted in its outcomes${seeText(see('event-trees'))}.`,
+        strong(`Loads outside the ranges of ${t.id}${seeText(see('event-trees'))}: `),
+        `${t.load.title} with an annual exceedance probability above ${formatProbability(upper)} or below ${formatProbability(lower)} `,
+        '(rarer than the last range) is not counted in its outcomes.',
       ),
     );
   }
   const scope = sentences(results.study.scope ?? '').filter((s) => SCOPE_EXCLUSION.test(s));
-  if (scope.length > 0) blocks.push(para(strong('Outside the scope: '), scope.join(' '), seeText(see('scope'))));
+  if (scope.length > 0) blocks.push(para(strong(`Outside the scope${seeText(see('scope'))}: `), scope.join(' ')));
   for (const a of results.assumptions) {
     const left = sentences(a.body).filter((s) => UNMODELLED_CAUSE.test(s));
-    if (left.length > 0) blocks.push(para(strong(`Common causes not modelled (assumption ${a.id}): `), left.join(' '), seeText(see('assumptions'))));
+    if (left.length > 0) {
+      const where = see('assumptions');
+      blocks.push(para(strong(`Common causes not modelled (assumption ${a.id}${where ? `, section ${where}` : ''}): `), left.join(' ')));
+    }
   }
   return blocks;
 }

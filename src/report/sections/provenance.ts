@@ -75,7 +75,7 @@ export const provenance: SectionRule = (results, ctx) => {
       }),
     );
   }
-  return { id: 'sec-provenance', number: ctx.number, title: 'Parameter provenance register', newPage: true, blocks };
+  return { id: 'sec-provenance', number: ctx.number, title: 'Parameter provenance register', blocks };
 };
 
 const IN_UNIT = ['median', 'mean', 'sd', 'min', 'max', 'mode', 'scale'];

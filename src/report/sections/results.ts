@@ -1,6 +1,6 @@
 import type { TopResult } from '../../analysis/results.js';
 import { anchor, type SectionRule } from '../context.js';
-import { callout, code, col, para, row, strong, subheading, table, type Part } from '../blocks.js';
+import { callout, code, col, para, row, strong, subheading, table, xref, type Part } from '../blocks.js';
 import { formatCount, formatProbability } from '../format.js';
 import type { Block } from '../view.js';
 
@@ -28,6 +28,19 @@ export const resultsSection: SectionRule = (results, ctx) => {
       ),
     }),
   );
+  if (results.uncertainty?.length) {
+    blocks.push(
+      para(
+        strong('Which figure to carry forward. '),
+        'The probabilities above are point values: the model evaluated with every parameter at its stated value. ',
+        'A risk assessment that annualises risk usually carries forward the Monte Carlo mean, which is usually higher than the ',
+        'point value because the inputs’ uncertainty is skewed and like components share one draw; the uncertainty section',
+        xref('uncertainty', ' ({})'),
+        ' gives both with the 5th and 95th percentiles, and the key findings repeat them.',
+        xref('methods', ' Method: {}.', 'method-uncertainty'),
+      ),
+    );
+  }
   for (const top of results.tops) blocks.push(...topBlocks(top, ctx.nextTable));
   if (results.warnings.length > 0) {
     blocks.push(
@@ -106,7 +119,7 @@ function comparison(top: TopResult, exact: string, rare: string, mcub: string): 
     return [
       ...lead,
       'They agree to the three significant figures shown: the cut sets are improbable enough, and overlap little enough, ',
-      'that the simple approximations would have served. The exact value is the one to quote.',
+      'that the simple approximations would have served. Quote the exact value rather than either approximation.',
     ];
   }
   const truncated = top.cut_set_summary.truncated > 0;
@@ -116,6 +129,6 @@ function comparison(top: TopResult, exact: string, rare: string, mcub: string): 
     'Both approximations are built from cut sets alone: they overstate the probability when cut-set probabilities are ',
     'not small or cut sets share events, and they understate it when cut sets were dropped by the cutoff or order limit',
     truncated ? ' (as some were here; see the cut-set section)' : '',
-    '. The exact value is the one to quote; the gap shows how much a cut-set-only method would have been off.',
+    '. Quote the exact value rather than either approximation; the gap shows how much a cut-set-only method would have been off.',
   ];
 }
