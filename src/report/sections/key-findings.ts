@@ -77,7 +77,7 @@ export const keyFindings: SectionRule = (results, ctx) => {
         id: 'tab-key-warnings',
         number: '',
         caption: 'Warnings a reviewer must see',
-        columns: [col('Warning', 'left', { code: true, width: 'auto' }), col('What it says', 'left', { width: 5 }), col('See', 'left', { width: 'auto' })],
+        columns: [col('Warning', 'left', { code: true, width: 'auto' }), col('What it says', 'left', { width: 5 }), col('Section', 'left', { width: 'auto' })],
         rows: warnings,
       }),
     );
@@ -93,7 +93,7 @@ function quantityColumns(first: string) {
     col('Mean', 'right', { width: 'auto' }),
     col('5th pct.', 'right', { width: 'auto' }),
     col('95th pct.', 'right', { width: 'auto' }),
-    col('See', 'left', { width: 'auto' }),
+    col('Section', 'left', { width: 'auto' }),
   ];
 }
 
