@@ -1,7 +1,7 @@
 /**
  * The stage after the point estimate that answers a reviewer's next questions: what drives the
- * number (class importance, sensitivity), what if (scenarios), how sure it is (uncertainty), and
- * how it moves with age (forecast). All of it reuses the base case's decision diagram through one
+ * number (class importance, sensitivity), what if (scenarios) and how it moves with age
+ * (forecast); how sure it is (uncertainty) is its own stage, after the shared causes. All of it reuses the base case's decision diagram through one
  * `CaseQuantifier`; only scenarios that flip switches compile another.
  */
 import type { Results } from './results.js';
@@ -12,7 +12,6 @@ import { forecast } from './forecast.js';
 import { classImportance } from './importance-classes.js';
 import { scenarios } from './scenarios.js';
 import { sensitivity } from './sensitivity.js';
-import { uncertainty } from './uncertainty.js';
 
 export const driversStage: Stage = (ctx) => {
   const { study } = ctx;
@@ -27,18 +26,6 @@ export const driversStage: Stage = (ctx) => {
   }
   out.sensitivity = sensitivity(study, quantifier, base);
   if (study.scenarios.length > 0) out.scenarios = scenarios(study, quantifier, base);
-  const u = uncertainty(study, quantifier, ctx.options.progress ? { progress: ctx.options.progress } : {});
-  if (u.results.length > 0) out.uncertainty = u.results;
-  if (u.held.length > 0) {
-    const byKey = new Map(study.parameters.map((p) => [p.key, p]));
-    out.warnings = [
-      ...ctx.results.warnings,
-      ...u.held.map((h) => {
-        const at = byKey.get(h.key)!.at;
-        return { code: 'uncertainty-not-sampled', message: `the uncertainty of '${h.key}' is not sampled: ${h.reason}`, at: { file: at.file, line: at.line } };
-      }),
-    ];
-  }
   out.forecast = forecast(study, quantifier);
   return out;
 };
