@@ -285,19 +285,6 @@ export interface Results {
   failure_modes?: FailureModeResult[];
   /** Life-data fits (events.yaml `fits:`), with what the probability plot needs. */
   fits?: FitResult[];
-  outcome_uncertainty?: QuantityUncertainty[];
-}
-
-/** Monte Carlo summary of one derived quantity, from the same trials as the tops' uncertainty. */
-export interface QuantityUncertainty {
-  kind: 'event-tree-outcome' | 'event-tree-sequence' | 'failure-mode' | 'failure-modes-combined' | 'gate-count';
-  /** The tree id (outcomes, sequences), failure-mode set id, or count id. */
-  owner: string;
-  /** Outcome / sequence / mode id; 'sum' | 'lower' | 'upper' for combined modes; 'at-least-<j>' for gate counts. */
-  id: string;
-  /** The base-case value, equal to the one printed in its own section. */
-  point: number;
-  mean: number; median: number; p05: number; p95: number; sd: number;
 }
 
 /** One common-cause group as expanded (NUREG/CR-5485), at the base case. */
