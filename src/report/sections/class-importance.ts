@@ -1,9 +1,7 @@
 import type { ClassImportance, TopResult } from '../../analysis/results.js';
-import { barChart } from '../charts/bars.js';
 import { anchor, type SectionRule } from '../context.js';
 import { code, col, para, row, subheading, table, xref } from '../blocks.js';
 import { formatCount, formatProbability, formatRatio, formatShare } from '../format.js';
-import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
 
 /**
@@ -20,12 +18,9 @@ export const classImportance: SectionRule = (results, ctx) => {
       xref('methods', 'Method: {}.', 'method-class-importance'),
     ),
   ];
-  const width = Math.min(contentBox(ctx.paper).width, 480);
   for (const top of tops) {
     const ranked = top.class_importance;
     const lead = ranked[0]!;
-    const figure = ctx.nextFigure();
-    const caption = `Fussell–Vesely importance of the component classes for ${top.id}`;
     blocks.push(
       subheading(anchor('class-importance', top.id), `${top.id} — ${top.title}`),
       para(
@@ -39,18 +34,6 @@ export const classImportance: SectionRule = (results, ctx) => {
         formatProbability(lead.p_failed),
         `, ${formatRatio(lead.raw)} times the value as studied.`,
       ),
-      {
-        kind: 'figure',
-        id: anchor('fig-class-importance', top.id),
-        number: figure,
-        caption,
-        parts: [
-          barChart(
-            ranked.map((c) => ({ label: c.class, value: c.fussell_vesely, text: formatShare(c.fussell_vesely) })),
-            { width, caption: `${figure}. ${caption}`, axis: 'Fussell–Vesely importance of the class (share of the top-event probability)' },
-          ),
-        ],
-      },
       table({
         id: anchor('tab-class-importance', top.id),
         number: ctx.nextTable(),

@@ -74,9 +74,13 @@ export const forecast: SectionRule = (results, ctx) => {
       table({
         id: anchor('tab-forecast', top.id),
         number: ctx.nextTable(),
-        caption: `Forecast probability of ${top.id} by year`,
+        caption: step > 1 ? `Forecast probability of ${top.id}, every ${counted(step, 'year')} and the last` : `Forecast probability of ${top.id} by year`,
         columns: [col('Year', 'right', { width: 'auto' }), col('Date', 'left', { width: 'auto' }), ...series.map((f) => col(name(f), 'right', { width: 'auto' as const }))],
-        rows: base.years.map((yr, k) => row([formatCount(yr.year), yr.date, ...series.map((f) => formatProbability(at(f, k)))])),
+        rows: base.years
+          .map((yr, k) => ({ yr, k }))
+          .filter(({ yr, k }) => yr.year % step === 0 || k === base.years.length - 1)
+          .map(({ yr, k }) => row([formatCount(yr.year), yr.date, ...series.map((f) => formatProbability(at(f, k)))])),
+        ...(step > 1 ? { note: 'Every year is in results.json (forecast).' } : {}),
       }),
     );
   }

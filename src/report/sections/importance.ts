@@ -1,11 +1,15 @@
 import type { Importance, TopResult } from '../../analysis/results.js';
 import { anchor, type SectionRule } from '../context.js';
-import { col, para, row, subheading, table, xref } from '../blocks.js';
+import { col, counted, para, row, subheading, table, xref } from '../blocks.js';
 import { formatProbability, formatRatio } from '../format.js';
 import type { Block } from '../view.js';
 import { compareText } from './cut-sets.js';
 
 /** Importance measures per top event, where the analysis computed them: a bar chart and a ranked table. */
+/** Shown: events with at least this FV, or at least this RAW (common practice for screening, no source). */
+const SHOWN_FV = 1e-3;
+const SHOWN_RAW = 10;
+
 export const importance: SectionRule = (results, ctx) => {
   const tops = results.tops.filter((t): t is TopResult & { importance: Importance[] } => (t.importance?.length ?? 0) > 0);
   if (tops.length === 0) return null;
@@ -17,7 +21,9 @@ export const importance: SectionRule = (results, ctx) => {
     ),
   ];
   for (const top of tops) {
-    const ranked = [...top.importance].sort((a, b) => b.fussell_vesely - a.fussell_vesely || compareText(a.event, b.event));
+    const all = [...top.importance].sort((a, b) => b.fussell_vesely - a.fussell_vesely || compareText(a.event, b.event));
+    // Events that neither carry a noticeable share nor would raise the top much if certain add nothing a reviewer acts on.
+    const ranked = all.filter((i) => i.fussell_vesely >= SHOWN_FV || i.raw >= SHOWN_RAW);
     blocks.push(subheading(anchor('importance', top.id), `${top.id} — ${top.title}`));
     blocks.push(
       table({
@@ -33,10 +39,10 @@ export const importance: SectionRule = (results, ctx) => {
           col('RAW', 'right', { width: 'auto' }),
           col('RRW', 'right', { width: 'auto' }),
         ],
-        rows: ranked.map((i, n) =>
+        rows: ranked.map((i) =>
           row(
             [
-              String(n + 1),
+              String(all.indexOf(i) + 1),
               i.event,
               formatProbability(i.fussell_vesely),
               formatProbability(i.birnbaum),
@@ -44,11 +50,14 @@ export const importance: SectionRule = (results, ctx) => {
               formatRatio(i.raw),
               formatRatio(i.rrw),
             ],
-            { sortKeys: [n + 1, i.event, i.fussell_vesely, i.birnbaum, i.criticality, i.raw, sortable(i.rrw)] },
+            { sortKeys: [all.indexOf(i) + 1, i.event, i.fussell_vesely, i.birnbaum, i.criticality, i.raw, sortable(i.rrw)] },
           ),
         ),
         sortable: true,
         sortedBy: { column: 0, descending: false },
+        ...(all.length > ranked.length
+          ? { note: `${counted(all.length - ranked.length, 'event')} with FV below ${formatProbability(SHOWN_FV)} and RAW below ${formatRatio(SHOWN_RAW)} ${all.length - ranked.length === 1 ? 'is' : 'are'} left out here; results.json lists every event.` }
+          : {}),
       }),
     );
   }

@@ -30,7 +30,6 @@ export const provenance: SectionRule = (results, ctx) => {
         col('Source', 'left', { code: true, width: 'auto' }),
         col('Where in the source', 'left', { width: 2 }),
         col('Range / uncertainty', 'left', { width: 2 }),
-        col('Used by', 'left', { code: true, width: 2 }),
       ],
       rows: results.parameters.map((p) =>
         row(
@@ -39,8 +38,7 @@ export const provenance: SectionRule = (results, ctx) => {
             p.written,
             p.source ?? 'UNSOURCED',
             [p.note, p.fit ? `fitted (${p.fit})` : undefined, `${p.at.file}:${p.at.line}`].filter(Boolean).join('; '),
-            spreadText(p),
-            p.used_by.join(', ') || 'not used',
+            p.used_by.length > 0 ? spreadText(p) : [spreadText(p), 'not used by any event'].filter((x) => x !== '—').join('; '),
           ],
           p.source ? {} : { flag: true },
         ),
@@ -60,7 +58,7 @@ export const provenance: SectionRule = (results, ctx) => {
           col('Title', 'left', { width: 3 }),
           col('Reference', 'left', { width: 2 }),
           col('Note', 'left', { width: 2 }),
-          col('Cited by', 'left', { code: true, width: 3 }),
+          col('Cited by', 'right', { width: 'auto' }),
         ],
         rows: results.sources.map((s) =>
           row([
@@ -69,7 +67,7 @@ export const provenance: SectionRule = (results, ctx) => {
             s.invented && !/\binvented\b/i.test(s.title) ? `${s.title} (invented)` : s.title,
             s.reference ?? '—',
             s.note ?? '—',
-            s.used_by.join(', ') || 'not cited by any number',
+            s.used_by.length > 0 ? counted(s.used_by.length, 'number') : 'no number',
           ]),
         ),
       }),

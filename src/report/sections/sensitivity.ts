@@ -3,7 +3,7 @@ import { logAxis, withTicks } from '../charts/axes.js';
 import { lineChart } from '../charts/line-chart.js';
 import { tornadoChart } from '../charts/tornado.js';
 import { anchor, type BuildContext, type SectionRule } from '../context.js';
-import { code, col, listWords, para, row, subheading, table, xref } from '../blocks.js';
+import { code, col, counted, listWords, para, row, subheading, table, xref } from '../blocks.js';
 import { formatAsWritten, formatCount, formatDuration, formatNumber, formatProbability, formatRatio } from '../format.js';
 import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
@@ -68,7 +68,7 @@ function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext): B
       table({
         id: anchor('tab-tornado', s.top),
         number: ctx.nextTable(),
-        caption: `One-at-a-time sensitivity of ${s.top}, by the size of the swing`,
+        caption: `One-at-a-time sensitivity of ${s.top}: the ${counted(shown.length, 'widest swing')}`,
         columns: [
           col('Rank', 'right', { width: 'auto' }),
           col('Parameter', 'left', { code: true, width: 3 }),
@@ -79,7 +79,7 @@ function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext): B
           col('Swing', 'right', { width: 'auto' }),
           col('Range from', 'left', { width: 2 }),
         ],
-        rows: moving.map((t, n) =>
+        rows: shown.map((t, n) =>
           row(
             [
               String(n + 1),
@@ -96,6 +96,7 @@ function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext): B
         ),
         sortable: true,
         sortedBy: { column: 0, descending: false },
+        ...(moving.length > shown.length ? { note: `${counted(moving.length - shown.length, 'parameter')} with smaller swings ${moving.length - shown.length === 1 ? 'is' : 'are'} in results.json (sensitivity).` } : {}),
       }),
     );
   } else if (s.tornado.length > 0) {
