@@ -2,7 +2,7 @@ import type { ParameterResult } from '../../analysis/results.js';
 import { col, counted, para, row, strong, subheading, table } from '../blocks.js';
 import type { SectionRule } from '../context.js';
 import { formatAsWritten, formatCount, formatQuantity } from '../format.js';
-import type { Block } from '../view.js';
+import type { Block, TableRow } from '../view.js';
 
 /**
  * The provenance register: every number of the study, as written, as used, where it comes from and
@@ -31,18 +31,7 @@ export const provenance: SectionRule = (results, ctx) => {
         col('Where in the source', 'left', { width: 2 }),
         col('Range / uncertainty', 'left', { width: 2 }),
       ],
-      rows: results.parameters.map((p) =>
-        row(
-          [
-            p.key,
-            p.written,
-            p.source ?? 'UNSOURCED',
-            [p.note, p.fit ? `fitted (${p.fit})` : undefined, `${p.at.file}:${p.at.line}`].filter(Boolean).join('; '),
-            p.used_by.length > 0 ? spreadText(p) : [spreadText(p), 'not used by any event'].filter((x) => x !== '—').join('; '),
-          ],
-          p.source ? {} : { flag: true },
-        ),
-      ),
+      rows: parameterRows(results.parameters),
       sortable: true,
     }),
   );
@@ -75,6 +64,60 @@ export const provenance: SectionRule = (results, ctx) => {
   }
   return { id: 'sec-provenance', number: ctx.number, title: 'Parameter provenance register', blocks };
 };
+
+/** Runs of at least this many event-tree or failure-mode numbers with one source are one row. */
+const GROUPED = 3;
+
+/**
+ * One row per parameter, except that the per-range numbers of an event tree or a failure-mode set
+ * (one owner, one source, one note, one file) share a row: their values are tabulated range by
+ * range in their own section, and forty near-identical rows would bury the register.
+ */
+function parameterRows(parameters: ParameterResult[]): TableRow[] {
+  const rows: TableRow[] = [];
+  for (let i = 0; i < parameters.length; ) {
+    const p = parameters[i]!;
+    let j = i + 1;
+    const alike = (q: ParameterResult) =>
+      (p.owner_kind === 'tree' || p.owner_kind === 'modes') && q.owner === p.owner && q.owner_kind === p.owner_kind && q.source === p.source && q.note === p.note && q.at.file === p.at.file && !q.range && !q.uncertainty && !p.range && !p.uncertainty;
+    while (j < parameters.length && alike(parameters[j]!)) j++;
+    if (j - i >= GROUPED) {
+      const run = parameters.slice(i, j);
+      const first = run[0]!.at.line;
+      const last = run[run.length - 1]!.at.line;
+      const fields = run.map((q) => q.key.slice(p.owner.length + 1));
+      rows.push(
+        row(
+          [
+            `${p.owner}: ${fields[0]} … ${fields[fields.length - 1]} (${run.length})`,
+            run.map((q) => q.written).join(', '),
+            p.source ?? 'UNSOURCED',
+            [p.note, `${p.at.file}:${first === last ? first : `${first}–${last}`}`].filter(Boolean).join('; '),
+            run.every((q) => q.used_by.length > 0) ? '—' : 'not all used by the model',
+          ],
+          p.source ? {} : { flag: true },
+        ),
+      );
+    } else {
+      for (const q of parameters.slice(i, j)) rows.push(parameterRow(q));
+    }
+    i = j;
+  }
+  return rows;
+}
+
+function parameterRow(p: ParameterResult): TableRow {
+  return row(
+    [
+      p.key,
+      p.written,
+      p.source ?? 'UNSOURCED',
+      [p.note, p.fit ? `fitted (${p.fit})` : undefined, `${p.at.file}:${p.at.line}`].filter(Boolean).join('; '),
+      p.used_by.length > 0 ? spreadText(p) : [spreadText(p), 'not used by any event'].filter((x) => x !== '—').join('; '),
+    ],
+    p.source ? {} : { flag: true },
+  );
+}
 
 const IN_UNIT = ['median', 'mean', 'sd', 'min', 'max', 'mode', 'scale'];
 

@@ -95,6 +95,8 @@ function topBlocks(results: Results, u: UncertaintyResult, ctx: BuildContext): B
         row(['Median', formatProbability(u.median)]),
         row(['95th percentile', formatProbability(u.p95)]),
         row(['95th percentile, first half of the trials', formatProbability(c.p95_half)]),
+        // The rest of the cumulative curve: every percentile the analysis gave beyond the three above.
+        ...u.cdf.filter((p) => ![0.05, 0.5, 0.95].includes(p.p)).map((p) => row([`${formatShare(p.p)} of trials at or below`, formatProbability(p.value)])),
       ],
     }),
   );
@@ -117,14 +119,5 @@ function topBlocks(results: Results, u: UncertaintyResult, ctx: BuildContext): B
     parts: [histogramChart(u.histogram, { width, label: `${hFigure}. ${hCaption}`, xTitle: `Probability of ${u.top}`, markers })],
   });
 
-  blocks.push(
-    table({
-      id: anchor('tab-cdf', u.top),
-      number: ctx.nextTable(),
-      caption: `Percentiles of the probability of ${u.top}`,
-      columns: [col('Fraction of trials at or below', 'right', { width: 'auto' }), col('Probability', 'right', { width: 'auto' })],
-      rows: u.cdf.map((p) => row([formatShare(p.p), formatProbability(p.value)])),
-    }),
-  );
   return blocks;
 }
