@@ -191,7 +191,10 @@ describe('faultbook fit on the reference records', () => {
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/shape β\s+2\.102\s/);
-    expect(r.stdout).toMatch(/scale η\s+81\.88\s/);
+    // Bare lives are read in years (the default life unit), and the table says so beside η.
+    expect(r.stdout).toMatch(/scale η \(years\)\s+81\.88\s/);
+    expect(r.stdout).toMatch(/B10 life \(years\)/);
+    expect(r.stdout).toContain('normal-approx. lower 90%');
     expect(r.stdout).toContain('23 failures, 0 suspensions');
   });
 

@@ -31,7 +31,6 @@ export function formatFit(fit: WeibullFit, unit?: string): string {
   const method = fit.method === 'mle' ? 'maximum likelihood' : 'median-rank regression (life on rank)';
   const params = fit.location !== undefined ? 3 : 2;
   const u = unit ? ` (${unit})` : '';
-  const shapeUnit = unit ? ' (no unit)' : '';
   const lvl = percent(fit.bounds.level);
   const lr = fit.bounds.likelihoodRatio;
   const bound = (b: Bound | undefined): [string, string] => [sig(b?.lower), sig(b?.upper)];
@@ -45,7 +44,7 @@ export function formatFit(fit: WeibullFit, unit?: string): string {
   };
   const rows: string[][] = [
     header,
-    row(`shape β${shapeUnit}`, fit.shape, fit.bounds.fisher.shape, bound(lr?.shape)),
+    row('shape β', fit.shape, fit.bounds.fisher.shape, bound(lr?.shape)),
     row(`scale η${u}`, fit.scale, fit.bounds.fisher.scale, bound(lr?.scale)),
   ];
   if (fit.location !== undefined) {

@@ -153,7 +153,7 @@ export function plotCaptionLine(fit: FitResult): string {
   const location = fit.location !== undefined ? `, γ = ${formatDuration(fit.location)}` : '';
   return (
     `β = ${formatRatio(fit.shape)}, η = ${formatDuration(fit.scale)}${location} (${METHOD_WORDS[fit.method]}); ` +
-    `bounds on F(t) one-sided ${levelText(fit.level)} each (normal-approximation, Fisher information), together a two-sided ${levelText(2 * fit.level - 1)} band`
+    `normal-approximation (Fisher information) bounds on F(t), one-sided ${levelText(fit.level)} each: a two-sided ${levelText(2 * fit.level - 1)} band`
   );
 }
 

@@ -1,5 +1,5 @@
 import type { QuantityUncertainty, Results } from '../../analysis/results.js';
-import { code, col, para, row, strong, subheading, table, type Part } from '../blocks.js';
+import { code, col, para, row, strong, subheading, table, xref, type Part } from '../blocks.js';
 import type { SectionRule } from '../context.js';
 import { formatAsWritten, formatCount, formatProbability, formatRatio } from '../format.js';
 import type { Block, TableRow } from '../view.js';
@@ -82,6 +82,15 @@ export const keyFindings: SectionRule = (results, ctx) => {
       }),
     );
   }
+  blocks.push(
+    para(
+      strong('Use with the cautions. '),
+      'These figures are an aid to engineering judgement, resting on the data, sources and assumptions of this appendix; ',
+      'local codes, the owner’s dam-safety guidelines and licensed professional review govern',
+      xref('cautions', ' (section {})'),
+      '.',
+    ),
+  );
   return { id: 'sec-key-findings', title: 'Key findings', newPage: true, blocks };
 };
 

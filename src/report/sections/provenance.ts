@@ -56,7 +56,7 @@ export const provenance: SectionRule = (results, ctx) => {
             s.invented && !/\binvented\b/i.test(s.title) ? `${s.title} (invented)` : s.title,
             s.reference ?? '—',
             s.note ?? '—',
-            s.used_by.length > 0 ? counted(s.used_by.length, 'number') : 'no number',
+            s.used_by.length > 0 ? counted(s.used_by.length, 'number') : 'not cited by any number',
           ]),
         ),
       }),
