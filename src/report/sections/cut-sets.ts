@@ -42,7 +42,7 @@ function topBlocks(top: TopResult, nextTable: () => string): Block[] {
     s.truncated > 0
       ? `${formatCount(s.truncated)} ${s.truncated === 1 ? 'cut set was' : 'cut sets were'} dropped by the cutoff or the order limit` +
         (s.truncated_probability !== undefined ? `, with a total probability of ${formatProbability(s.truncated_probability)}.` : '.')
-      : 'None was dropped by the cutoff or the order limit.',
+      : `None of the cut sets of ${top.id} was dropped by the cutoff or the order limit.`,
   ];
   return [
     subheading(anchor('cuts', top.id), `${top.id} — ${top.title}`),

@@ -31,11 +31,12 @@ export const fits: SectionRule = (results, ctx) => {
       xref('methods', 'Method and how to read the plots: {}.', 'method-fits'),
     ),
   ];
-  for (const fit of list) blocks.push(...fitBlocks(fit, results, ctx));
+  // Each fitting method is described in full at its first fit only.
+  list.forEach((fit, i) => blocks.push(...fitBlocks(fit, results, ctx, list.findIndex((f) => f.method === fit.method) === i)));
   return { id: 'sec-fits', number: ctx.number, title: 'Life-data fits', blocks };
 };
 
-function fitBlocks(fit: FitResult, results: Results, ctx: BuildContext): Block[] {
+function fitBlocks(fit: FitResult, results: Results, ctx: BuildContext, explainMethod: boolean): Block[] {
   const blocks: Block[] = [subheading(anchor('fit', fit.id), `${fit.id} — ${fit.data}${fit.group ? `, group ${fit.group}` : ''}`)];
   blocks.push(keyValues(summaryItems(fit, results)));
   blocks.push(
@@ -60,7 +61,8 @@ function fitBlocks(fit: FitResult, results: Results, ctx: BuildContext): Block[]
         'Numbers are rounded here; the parameter register gives the values the quantification uses.',
     }),
   );
-  blocks.push(para(strong('Method: '), `${METHOD_DETAIL[fit.method]}.`));
+  if (explainMethod) blocks.push(para(strong('Method: '), `${METHOD_DETAIL[fit.method]}.`));
+  else blocks.push(para(strong('Method: '), `${METHOD_WORDS[fit.method]}, as above.`));
   blocks.push(para(strong('Goodness of fit: '), goodnessVerdict(fit)));
   blocks.push(para(strong('Provenance: '), fit.provenance, '.'));
   blocks.push(usedByPara(fit, ctx));
@@ -127,7 +129,8 @@ export function goodnessVerdict(fit: FitResult): string {
       ? `${head}The statistic exceeds the critical value, so the Weibull law is rejected at the 5% level for these records and the fitted numbers should not be used without a closer look at the data.`
       : `${head}The statistic is below the critical value, so the records give no reason at the 5% level to reject the Weibull law.`;
   }
-  return `${statistic}${plot}. No published critical value applies to records like these (with suspensions, a location or rank estimates), so the statistic gives no verdict and serves to compare fits of the same records; judge the fit from the plot.`;
+  // One sentence with this fit's numbers in it, so two fits never repeat each other word for word.
+  return `${statistic}${plot}: no published critical value applies to records with suspensions, a location or rank estimates, so the statistic gives no verdict and serves to compare fits of the same records; judge the fit from the plot.`;
 }
 
 function usedByPara(fit: FitResult, ctx: BuildContext): Block {

@@ -26,11 +26,12 @@ export const sensitivity: SectionRule = (results, ctx) => {
       xref('methods', 'Method: {}.', 'method-sensitivity'),
     ),
   ];
-  for (const s of list) blocks.push(...topBlocks(results, s, ctx));
+  const firstCurve = list.find((x) => x.exercise_curve.length > 0);
+  for (const s of list) blocks.push(...topBlocks(results, s, ctx, s === firstCurve));
   return { id: 'sec-sensitivity', number: ctx.number, title: 'Sensitivity', blocks };
 };
 
-function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext): Block[] {
+function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext, explainCurve: boolean): Block[] {
   const top = results.tops.find((t) => t.id === s.top);
   const blocks: Block[] = [subheading(anchor('sensitivity', s.top), `${s.top}${top ? ` — ${top.title}` : ''}`)];
   const width = Math.min(contentBox(ctx.paper).width, 480);
@@ -111,7 +112,7 @@ function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext): B
       ),
     );
   }
-  if (s.exercise_curve.length > 0) blocks.push(...exerciseBlocks(results, s, ctx, width));
+  if (s.exercise_curve.length > 0) blocks.push(...exerciseBlocks(results, s, ctx, width, explainCurve));
   return blocks;
 }
 
@@ -128,7 +129,8 @@ function rangeBasis(t: TornadoRow, results: Results): string {
   return typeof factor === 'number' ? `default factor ×/÷ ${formatNumber(factor)}` : 'default factor';
 }
 
-function exerciseBlocks(results: Results, s: SensitivityResult, ctx: BuildContext, width: number): Block[] {
+/** The curve's set-up and why it rises are said with the first top's curve only; later tops give their numbers. */
+function exerciseBlocks(results: Results, s: SensitivityResult, ctx: BuildContext, width: number, explain: boolean): Block[] {
   const exercised = results.parameters.filter((p) => p.field === 'exercise' && p.used_by.length > 0);
   const base = s.exercise_curve.find((c) => c.base);
   const points = s.exercise_curve.filter((c) => !c.base && c.years !== undefined);
@@ -136,12 +138,13 @@ function exerciseBlocks(results: Results, s: SensitivityResult, ctx: BuildContex
   const last = points[points.length - 1];
   const blocks: Block[] = [
     para(
-      `The exercise interval: every exercise field of the study (${listWords(exercised.map((p) => p.key))}) set together to `,
-      `${listWords(points.map((p) => p.label))}, everything else as studied. `,
+      explain
+        ? `The exercise interval: every exercise field of the study (${listWords(exercised.map((p) => p.key))}) set together to ${listWords(points.map((p) => p.label))}, everything else as studied. `
+        : '',
       first && last
         ? `Exercising ${first.label} gives ${formatProbability(first.probability)} (${formatRatio(first.ratio)} × as studied); ${last.label}, ${formatProbability(last.probability)} (${formatRatio(last.ratio)} ×). `
         : '',
-      'A component that waits longer between exercises has longer to fail unseen before the demand, so the curve rises with the interval.',
+      explain ? 'A component that waits longer between exercises has longer to fail unseen before the demand, so the curve rises with the interval.' : '',
     ),
   ];
   const figure = ctx.nextFigure();
