@@ -420,8 +420,25 @@ function keyValueContent(block: KeyValueBlock): Content {
   } as Content;
 }
 
+/** Listings whose lines are this short (a few header lines aside, which wrap) are set in two columns: life-record CSVs. */
+const NARROW_LISTING = 56;
+
 function preContent(block: PreBlock): Content {
   const width = String(block.lines.length).length * 4.5 + 6;
+  const listing = (from: number, lines: string[]): Content => ({
+    table: {
+      widths: [width, '*'],
+      dontBreakRows: true,
+      body: lines.map((line, i) => [
+        { text: String(from + i + 1), style: 'lineNumber' },
+        // An empty string would collapse the row; a space keeps the blank line.
+        { text: line === '' ? ' ' : line, style: 'listing' },
+      ]),
+    },
+    layout: 'listing',
+  });
+  const narrow = block.lines.length > 24 && block.lines.filter((l) => l.length > NARROW_LISTING).length <= 3;
+  const half = Math.ceil(block.lines.length / 2);
   return {
     stack: [
       {
@@ -431,18 +448,9 @@ function preContent(block: PreBlock): Content {
         ],
         margin: [0, 8, 0, 3],
       },
-      {
-        table: {
-          widths: [width, '*'],
-          dontBreakRows: true,
-          body: block.lines.map((line, i) => [
-            { text: String(i + 1), style: 'lineNumber' },
-            // An empty string would collapse the row; a space keeps the blank line.
-            { text: line === '' ? ' ' : line, style: 'listing' },
-          ]),
-        },
-        layout: 'listing',
-      },
+      narrow
+        ? ({ columns: [listing(0, block.lines.slice(0, half)), listing(half, block.lines.slice(half))], columnGap: 8 } as Content)
+        : listing(0, block.lines),
     ],
   } as Content;
 }

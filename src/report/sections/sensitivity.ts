@@ -9,7 +9,7 @@ import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
 
 /** Rows in the tornado chart; the table lists every parameter that moves the top. */
-const TORNADO_ROWS = 12;
+const TORNADO_ROWS = 10;
 
 /**
  * One-at-a-time sensitivity: per top event, a tornado chart and table of the parameters that move
@@ -166,6 +166,7 @@ function exerciseBlocks(results: Results, s: SensitivityResult, ctx: BuildContex
         label: `${figure}. ${caption}`,
         x,
         y,
+        frameHeight: 130,
         ...(base ? { references: [{ axis: 'y' as const, value: base.probability, label: `as studied ${formatProbability(base.probability)}` }] } : {}),
       }),
     ],
