@@ -112,7 +112,8 @@ function parameterRow(p: ParameterResult): TableRow {
       p.key,
       p.written,
       p.source ?? 'UNSOURCED',
-      [p.note, p.fit ? `fitted (${p.fit})` : undefined, `${p.at.file}:${p.at.line}`].filter(Boolean).join('; '),
+      // The reader's note already says "fitted from <data>"; name the fit only where it does not.
+      [p.note, p.fit && !/\bfitted from\b/.test(p.note ?? '') ? `fitted (${p.fit})` : undefined, `${p.at.file}:${p.at.line}`].filter(Boolean).join('; '),
       p.used_by.length > 0 ? spreadText(p) : [spreadText(p), 'not used by any event'].filter((x) => x !== '—').join('; '),
     ],
     p.source ? {} : { flag: true },
