@@ -84,7 +84,10 @@ function resolveRefs(block: Block, built: Built): Block {
       const target = built.get(r.ref.section);
       if (!target) return [];
       const { ref, ...rest } = r;
-      return [{ ...rest, text: r.text.replace('{}', target.number), link: ref.anchor ?? target.id }];
+      const text = r.text.replace('{}', target.number);
+      // Leading space stays outside the link, so only the words are underlined.
+      const lead = /^\s*/.exec(text)![0];
+      return [...(lead ? [{ ...rest, text: lead }] : []), { ...rest, text: text.slice(lead.length), link: ref.anchor ?? target.id }];
     });
   if (block.kind === 'text') return { ...block, runs: fix(block.runs) };
   if (block.kind === 'callout') return { ...block, paragraphs: block.paragraphs.map(fix) };

@@ -199,7 +199,7 @@ function cover(view: Appendix): Content {
       ...(c.client || c.consultant
         ? [
             {
-              text: [c.client ? `Client: ${c.client}` : '', c.client && c.consultant ? '     ' : '', c.consultant ? `Prepared by: ${c.consultant}` : ''].join(''),
+              text: [c.client ? `Client: ${c.client}` : '', c.client && c.consultant ? '     ' : '', c.consultant ? `Consultant: ${c.consultant}` : ''].join(''),
               style: 'coverMeta',
               margin: [0, 3, 0, 0],
             } as Content,
