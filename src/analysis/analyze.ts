@@ -14,6 +14,8 @@ import { boundTops, boundWarning, compileBaseCase, quantifyTops } from './quanti
 import { describeStudy } from './results-parts.js';
 import { sharedCauseStage } from './shared-cause-stage.js';
 import { uncertaintyStage } from './uncertainty.js';
+import { capWarnings } from './input-warnings.js';
+import { extrapolation } from '../study/fits.js';
 import type { EventResult, Results } from './results.js';
 
 export interface AnalyzeOptions {
@@ -57,7 +59,7 @@ export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
     events: eventResults(study, evaluation),
     parameters: parts.parameters,
     tops,
-    warnings: parts.warnings,
+    warnings: [...parts.warnings, ...capWarnings(study, evaluation)],
   };
   if (!compiled) {
     // Every further stage re-evaluates the diagram; without one the results stop at the bounds.
@@ -96,6 +98,8 @@ function eventResults(study: Study, evaluation: EventEvaluation): EventResult[] 
     if (e.installed) r.installed = e.installed;
     if (e.renewed) r.renewed = e.renewed;
     if (e.on !== undefined) r.on = e.on;
+    const x = extrapolation(study, e);
+    if (x) r.extrapolated = x;
     return r;
   });
 }

@@ -38,6 +38,8 @@ export interface EventResult {
   total_probability?: number;
   /** Shared events only: the members whose common failure this event is. */
   common_cause_members?: string[];
+  /** Set when the event's age lies beyond the oldest life (failed or suspended) in the data behind its fitted parameters. */
+  extrapolated?: { fit: string; age_years: number; data_max_years: number };
 }
 
 export interface ParameterResult {

@@ -6,6 +6,7 @@
  * (`EventPlan`) and the tops through the prepared diagram pass, all without re-reading or
  * re-building anything. Seeded by settings.seed: the same study gives the same numbers.
  */
+import { notSampledWarning } from './input-warnings.js';
 import { flattenDiagram } from '../logic/flat-diagram.js';
 import type { Study } from '../study/types.js';
 import type { Stage } from './analyze.js';
@@ -155,14 +156,7 @@ export const uncertaintyStage: Stage = (ctx) => {
   const outcomes = u.run ? outcomeUncertainty(u.run, ctx.results) : [];
   if (outcomes.length > 0) out.outcome_uncertainty = outcomes;
   if (u.held.length > 0) {
-    const byKey = new Map(study.parameters.map((p) => [p.key, p]));
-    out.warnings = [
-      ...ctx.results.warnings,
-      ...u.held.map((h) => {
-        const at = byKey.get(h.key)!.at;
-        return { code: 'uncertainty-not-sampled', message: `the uncertainty of '${h.key}' is not sampled: ${h.reason}`, at: { file: at.file, line: at.line } };
-      }),
-    ];
+    out.warnings = [...ctx.results.warnings, ...u.held.map((h) => notSampledWarning(study, h))];
   }
   return out;
 };

@@ -3,6 +3,7 @@
  * Input problems (StudyError) print as `file:line:col: message` with what would be right, exit 2,
  * never a stack trace. Anything else is our fault: exit 1, one line, the stack only with FAULTBOOK_DEBUG=1.
  */
+import { suggest } from '../study/check-logic.js';
 import { StudyError, StudyErrors } from '../study/errors.js';
 import { toolVersion } from '../package.js';
 import { EXIT, type Command, type Io } from './io.js';
@@ -34,7 +35,7 @@ export async function main(argv: string[], io: Io): Promise<number> {
   }
   const command = commands[name];
   if (!command) {
-    io.stderr(`faultbook: unknown command '${name}'\n  expected: one of ${Object.keys(commands).join(', ')}\n`);
+    io.stderr(`faultbook: unknown command '${name}'\n  expected: ${suggest(name, Object.keys(commands), `one of ${Object.keys(commands).join(', ')}`)}\n`);
     return EXIT.badInput;
   }
   return runGuarded(command.run, rest, io);

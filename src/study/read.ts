@@ -68,7 +68,7 @@ export function readStudy(folder: string): Study {
     yamlFiles,
     assumptions,
     files,
-    runFit: (fit) => void runFit(fit, readText),
+    runFit: (fit, asOf) => void runFit(fit, readText, asOf),
   });
   const logo = study.meta.report?.logo;
   if (logo !== undefined) study.files.push(readLogo(root, logo, logoPosition(yamlFiles)));

@@ -59,8 +59,12 @@ function describePath(path: PathSegment[], file: YamlFile): string {
  */
 function translate(errors: ErrorObject[], file: YamlFile): StudyError[] {
   const rank: Record<string, number> = { additionalProperties: 0, required: 1, enum: 2, const: 2, pattern: 3, type: 4, minimum: 5, maximum: 5 };
+  // A duration or rate written without its unit: the reader says so with the field and the likely
+  // units, far better than "not a valid parameter", so every complaint at that place is left to it.
+  const unitless = new Set(errors.filter((e) => /\/(durationText|rateText)\//.test(e.schemaPath) || /#\/definitions\/(durationText|rateText)$/.test(e.schemaPath.replace(/\/(type|pattern)$/, ''))).map((e) => e.instancePath));
   const byPath = new Map<string, ErrorObject>();
   for (const e of errors) {
+    if (unitless.has(e.instancePath) || [...unitless].some((p) => e.instancePath === p.slice(0, p.lastIndexOf('/')) && e.keyword === 'oneOf')) continue;
     const key = e.instancePath;
     const prev = byPath.get(key);
     if (!prev || (rank[e.keyword] ?? 9) < (rank[prev.keyword] ?? 9)) byPath.set(key, e);
@@ -86,8 +90,11 @@ function toStudyError(e: ErrorObject, path: PathSegment[], file: YamlFile): Stud
     }
     case 'required':
       return new StudyError(`${where} is missing '${String(params.missingProperty)}'`, file.at(path), `add '${String(params.missingProperty)}:'`);
-    case 'enum':
-      return new StudyError(`${where} has a value that is not allowed`, file.at(path), `one of: ${(params.allowedValues as unknown[]).map(String).join(', ')}`);
+    case 'enum': {
+      const allowed = (params.allowedValues as unknown[]).map(String);
+      const written = typeof e.data === 'string' ? ` '${e.data}'` : '';
+      return new StudyError(`${where} has a value${written} that is not allowed`, file.at(path), typeof e.data === 'string' ? suggest(e.data, allowed, `one of: ${allowed.join(', ')}`) : `one of: ${allowed.join(', ')}`);
+    }
     case 'const':
       return new StudyError(`${where} must be ${JSON.stringify(params.allowedValue)}`, file.at(path), JSON.stringify(params.allowedValue));
     case 'type':

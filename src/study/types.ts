@@ -264,13 +264,15 @@ export interface FitSpec {
   result?: WeibullFit;
   /** Set by the reader: rows in the file, excluded ones too. */
   rows?: number;
+  /** Set by the reader: the longest life (failed or suspended) among the records the fit used, years. */
+  dataMaxYears?: number;
   /** Path inside the study folder, as written. */
   data: string;
   method: 'mle' | 'rank';
   /** Also fit a location (failure-free time) parameter. */
   threeParameter: boolean;
-  /** Unit of the `life` column when it is a bare number (default years). */
-  lifeUnit: string;
+  /** Unit of bare numbers in the `life` column (`life_unit:`); absent when the file states it or every life has its own. */
+  lifeUnit?: string;
   /** Confidence level for the bounds shown, e.g. 0.9. */
   confidence: number;
   at: Pos;

@@ -17,6 +17,8 @@ export interface YamlFile {
   at(path: readonly PathSegment[]): Pos;
   /** Position of the key that names the value at `path` (for "unknown key" style messages). */
   keyAt(path: readonly PathSegment[]): Pos;
+  /** The text of the scalar at `path` exactly as written (`2e-3`, not the 0.002 it parses to); undefined when there is none. */
+  sourceAt?(path: readonly PathSegment[]): string | undefined;
 }
 
 /** Aliases allowed per file: enough for honest reuse, far too few for an expansion bomb. */
@@ -78,7 +80,18 @@ export function parseYamlFile(file: string, text: string): YamlFile {
     }
     return best;
   };
-  return { file, text, data, at: (path) => find(path, false), keyAt: (path) => find(path, true) };
+  const sourceAt = (path: readonly PathSegment[]): string | undefined => {
+    let node: unknown = doc.contents;
+    for (const seg of path) {
+      if (isMap(node)) node = node.items.find((p) => (isScalar(p.key) ? String(p.key.value) : p.key) === String(seg))?.value;
+      else if (isSeq(node) && typeof seg === 'number') node = node.items[seg];
+      else return undefined;
+    }
+    if (!isScalar(node) || !isNodeWithRange(node)) return undefined;
+    const raw = text.slice(node.range[0], node.range[1]).trim();
+    return /^["']/.test(raw) ? raw.slice(1, -1) : raw;
+  };
+  return { file, text, data, at: (path) => find(path, false), keyAt: (path) => find(path, true), sourceAt };
 }
 
 function isNodeWithRange(node: unknown): node is Node & { range: [number, number, number] } {
@@ -132,6 +145,15 @@ function explainYamlError(code: ErrorCode, raw: string, text: string, offset: nu
       }
       return { message: firstLine(raw), hint: 'valid YAML (check indentation, colons and quotes)', offset };
     }
+    // The parser's words stay (they are searchable); the hint says in plain words what usually causes them.
+    case 'BAD_INDENT':
+      return { message: firstLine(raw), hint: 'this line is indented differently from the lines beside it: the keys of one mapping start in the same column (use spaces, two per level)', offset };
+    case 'BLOCK_AS_IMPLICIT_KEY':
+      return { message: firstLine(raw), hint: "a line indented further than the key above it is read as part of that key's value: indent it like its neighbours; or, if a value holds ': ', put the value in quotes", offset };
+    case 'MULTILINE_IMPLICIT_KEY':
+      return { message: firstLine(raw), hint: "a key and its ':' on one line; check the indentation of this line and the one above it", offset };
+    case 'TAB_AS_INDENT':
+      return { message: firstLine(raw), hint: 'indentation with spaces only (two per level), no tabs', offset };
     default:
       return { message: firstLine(raw), hint: 'valid YAML (check indentation, colons and quotes)', offset };
   }
