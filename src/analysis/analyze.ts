@@ -10,7 +10,7 @@ import { driversStage } from './drivers-stage.js';
 import { evaluateEvents, EventProbabilityError, type EventEvaluation } from './event-probability.js';
 import { fitsStage } from './fits.js';
 import { buildLogicModel, type LogicModel } from './logic-model.js';
-import { boundTops, boundWarning, compileBaseCase, quantifyTops } from './quantify.js';
+import { boundTops, boundWarning, cappedWarnings, compileBaseCase, quantifyTops } from './quantify.js';
 import { describeStudy } from './results-parts.js';
 import { sharedCauseStage } from './shared-cause-stage.js';
 import { uncertaintyStage } from './uncertainty.js';
@@ -59,7 +59,7 @@ export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
     events: eventResults(study, evaluation),
     parameters: parts.parameters,
     tops,
-    warnings: [...parts.warnings, ...capWarnings(study, evaluation)],
+    warnings: [...parts.warnings, ...capWarnings(study, evaluation), ...cappedWarnings(tops)],
   };
   if (!compiled) {
     // Every further stage re-evaluates the diagram; without one the results stop at the bounds.

@@ -9,6 +9,7 @@ import { toolVersion } from '../package.js';
 import { EXIT, type Command, type Io } from './io.js';
 import { commands } from './commands.js';
 import { OutputWriteError } from './outputs.js';
+import { terminalIo } from './terminal.js';
 
 const USAGE = `faultbook ${toolVersion} — failure-probability studies to a sourced, reproducible appendix
 
@@ -23,7 +24,9 @@ Run 'faultbook <command> --help' for a command's options.
 Exit codes: 0 done, 2 the study or the arguments are wrong, 3 verification found a difference, 1 anything else.
 `;
 
-export async function main(argv: string[], io: Io): Promise<number> {
+export async function main(argv: string[], rawIo: Io): Promise<number> {
+  // The one place terminal output is made safe: every command prints through this Io.
+  const io = terminalIo(rawIo);
   const [name, ...rest] = argv;
   if (!name || name === '--help' || name === '-h' || name === 'help') {
     io.stdout(USAGE);

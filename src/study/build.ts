@@ -37,10 +37,14 @@ import type { YamlFile } from './yaml.js';
 export const DEFAULT_SETTINGS: Settings = {
   cutoff: 1e-12,
   max_order: 8,
+  max_cut_sets: 10_000,
   samples: 20000,
   seed: 20260630,
   horizon: 30,
-  max_nodes: 4_000_000,
+  // Live decision-diagram nodes: about 2 GB of node tables at ~32 bytes a node (node 16, unique
+  // table 4, visit stamp 4, computed cache 4, collection scratch 5); garbage is collected, so only
+  // the diagrams in use count (logic/bdd.ts).
+  max_nodes: 64_000_000,
   on_node_budget: 'stop',
   exercise_basis: 'end',
   sensitivity_factor: 2,

@@ -139,11 +139,13 @@ export interface Settings {
   cutoff: number;
   /** Cut sets of more events than this are not listed. */
   max_order: number;
+  /** At most this many cut sets are kept per top (the most probable); the rest are counted and summed. */
+  max_cut_sets: number;
   samples: number;
   seed: number;
   /** Forecast horizon, years. */
   horizon: number;
-  /** Decision-diagram node budget. */
+  /** Decision-diagram node budget: live nodes (garbage is collected), default about 2 GB worth. */
   max_nodes: number;
   /** How a Weibull `exercise` interval turns into a probability: at its end (default) or averaged over it. */
   exercise_basis: 'end' | 'average';

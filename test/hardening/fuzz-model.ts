@@ -142,7 +142,7 @@ const KEYS = [
   'gate', 'any', 'all', 'atleast', 'of', 'not', 'model', 'class', 'source', 'assumptions', 'installed', 'renewed', 'on',
   'probability', 'rate', 'exposure', 'repair', 'interval', 'test_duration', 'shape', 'scale', 'location', 'exercise',
   'value', 'fit', 'range', 'uncertainty', 'lognormal', 'median', 'ef', 'note', 'set', 'switch', 'renew', 'data', 'members', 'method', 'beta',
-  'cutoff', 'max_order', 'samples', 'seed', 'horizon', 'max_nodes', 'on_node_budget', 'exercise_basis', 'sensitivity_factor', 'sampling',
+  'cutoff', 'max_order', 'max_cut_sets', 'samples', 'seed', 'horizon', 'max_nodes', 'on_node_budget', 'exercise_basis', 'sensitivity_factor', 'sampling',
 ];
 /** Values to put anywhere. Magnitudes stay within 1e±300 for the reason given at EXTREMES below. */
 const INTERESTING: unknown[] = [

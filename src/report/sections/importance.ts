@@ -60,6 +60,7 @@ export const importance: SectionRule = (results, ctx) => {
           : {}),
       }),
     );
+    if (top.no_effect) blocks.push(para(`Not listed (${top.no_effect.events.join(', ')}): ${top.no_effect.note}.`));
   }
   return { id: 'sec-importance', number: ctx.number, title: 'Importance measures', blocks };
 };
