@@ -13,6 +13,7 @@ import { buildLogicModel, type LogicModel } from './logic-model.js';
 import { boundTops, boundWarning, cappedWarnings, compileBaseCase, quantifyTops } from './quantify.js';
 import { describeStudy } from './results-parts.js';
 import { sharedCauseStage } from './shared-cause-stage.js';
+import { uncertaintyStage } from './uncertainty.js';
 import { capWarnings } from './input-warnings.js';
 import { extrapolation } from '../study/fits.js';
 import type { EventResult, Results } from './results.js';
@@ -36,7 +37,7 @@ export interface AnalysisContext {
 export type Stage = (ctx: AnalysisContext) => Partial<Results>;
 
 /** The stages, in the order they run; later issues add theirs here. */
-const STAGES: Stage[] = [fitsStage, driversStage, sharedCauseStage];
+const STAGES: Stage[] = [fitsStage, driversStage, sharedCauseStage, uncertaintyStage];
 
 export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
   const model = buildLogicModel(study);

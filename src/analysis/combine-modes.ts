@@ -25,6 +25,7 @@
  * Not implemented: any weighting of modes by which would occur first, and the paper's discussion
  * of dependence between modes beyond the shared load.
  */
+import type { FailureModeSet } from '../study/types.js';
 import { poissonBinomial } from './gate-counts.js';
 
 /** Sum, uni-modal lower and upper bound of the probability that at least one mode occurs. */
@@ -51,4 +52,50 @@ export function commonCauseAdjustment(p: readonly number[]): number[] {
     });
     return pi * share;
   });
+}
+
+/** The numbers of one set of failure modes at one set of values. */
+export interface ModeNumbers {
+  /** [mode][range]: P(mode | range), and after the common-cause adjustment. */
+  conditional: number[][];
+  adjusted: number[][];
+  /** [mode]: Σ_r P(r)·P(mode | r), before and after the adjustment. */
+  annual: number[];
+  adjustedAnnual: number[];
+  byRange: { sum: number; lower: number; upper: number }[];
+  total: { sum: number; lower: number; upper: number };
+}
+
+/**
+ * The combination of one set of modes: the load ranges' probabilities `rangeP`, each outcome's
+ * annual probability per range (`outcomeByRange(id)`, from the event tree) and the values of the
+ * modes' own numbers. The base case and every Monte Carlo trial compute through this.
+ */
+export function modeNumbers(
+  set: FailureModeSet,
+  rangeP: readonly number[],
+  outcomeByRange: (outcome: string) => readonly number[],
+  value: (key: string) => number,
+): ModeNumbers {
+  const R = rangeP.length;
+  const conditional = set.modes.map((mode) => {
+    const b = mode.basis;
+    if (b.kind === 'probability') return rangeP.map(() => value(b.key));
+    if (b.kind === 'by-range') return b.keys.map(value);
+    // P(outcome | range): the outcome's annual probability in the range over the range's.
+    return outcomeByRange(b.outcome).map((x, r) => (rangeP[r]! > 0 ? x / rangeP[r]! : 0));
+  });
+  const perRange = Array.from({ length: R }, (_, r) => conditional.map((c) => c[r]!));
+  const byRange = perRange.map(uniModalBounds);
+  const perRangeAdjusted = perRange.map(commonCauseAdjustment);
+  const annualOf = (xs: readonly number[]) => xs.reduce((s, x, r) => s + rangeP[r]! * x, 0);
+  const adjusted = set.modes.map((_, i) => perRangeAdjusted.map((a) => a[i]!));
+  return {
+    conditional,
+    adjusted,
+    annual: conditional.map(annualOf),
+    adjustedAnnual: adjusted.map(annualOf),
+    byRange,
+    total: { sum: annualOf(byRange.map((b) => b.sum)), lower: annualOf(byRange.map((b) => b.lower)), upper: annualOf(byRange.map((b) => b.upper)) },
+  };
 }

@@ -1,7 +1,7 @@
 /**
  * The stage after the point estimate that answers a reviewer's next questions: what drives the
- * number (class importance, sensitivity), what if (scenarios), how sure it is (uncertainty), and
- * how it moves with age (forecast). All of it reuses the base case's decision diagram through one
+ * number (class importance, sensitivity), what if (scenarios) and how it moves with age
+ * (forecast); how sure it is (uncertainty) is its own stage, after the shared causes. All of it reuses the base case's decision diagram through one
  * `CaseQuantifier`; only scenarios that flip switches compile another.
  */
 import type { Results } from './results.js';
@@ -9,11 +9,9 @@ import type { Stage } from './analyze.js';
 import { baseCase } from './case.js';
 import { CaseQuantifier } from './case-quantifier.js';
 import { forecast } from './forecast.js';
-import { notSampledWarning } from './input-warnings.js';
 import { classImportance } from './importance-classes.js';
 import { scenarios } from './scenarios.js';
 import { sensitivity } from './sensitivity.js';
-import { uncertainty } from './uncertainty.js';
 
 export const driversStage: Stage = (ctx) => {
   const { study } = ctx;
@@ -28,11 +26,6 @@ export const driversStage: Stage = (ctx) => {
   }
   out.sensitivity = sensitivity(study, quantifier, base);
   if (study.scenarios.length > 0) out.scenarios = scenarios(study, quantifier, base);
-  const u = uncertainty(study, quantifier, ctx.options.progress ? { progress: ctx.options.progress } : {});
-  if (u.results.length > 0) out.uncertainty = u.results;
-  if (u.held.length > 0) {
-    out.warnings = [...ctx.results.warnings, ...u.held.map((h) => notSampledWarning(study, h))];
-  }
   out.forecast = forecast(study, quantifier);
   return out;
 };

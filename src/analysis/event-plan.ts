@@ -138,3 +138,26 @@ export function parametersRead(study: Study): Set<string> {
   for (const g of study.commonCause) for (const key of Object.values(g.fields)) read.add(key);
   return read;
 }
+
+/**
+ * The keys of `parametersRead` and those an event tree or a failure-mode set reads: its load
+ * ranges, plain branch numbers and the modes' own numbers move the sequences, outcomes and
+ * combined modes (outcome-quantities.ts), so the Monte Carlo samples them too.
+ */
+export function parametersSampled(study: Study): Set<string> {
+  const read = parametersRead(study);
+  for (const t of study.eventTrees ?? []) {
+    for (const r of t.load.ranges) for (const key of r.aep ?? [r.frequency!]) read.add(key);
+    for (const h of t.headings) {
+      if (h.fails.kind === 'probability') read.add(h.fails.key);
+      if (h.fails.kind === 'by-range') for (const key of h.fails.keys) read.add(key);
+    }
+  }
+  for (const set of study.failureModes ?? []) {
+    for (const m of set.modes) {
+      if (m.basis.kind === 'probability') read.add(m.basis.key);
+      if (m.basis.kind === 'by-range') for (const key of m.basis.keys) read.add(key);
+    }
+  }
+  return read;
+}

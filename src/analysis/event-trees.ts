@@ -28,13 +28,111 @@ export function rangeProbabilities(tree: EventTree, value: Value): number[] {
   return tree.load.ranges.map((r) => (r.basis === 'aep' ? value(r.aep![0]) - value(r.aep![1]) : value(r.frequency!)));
 }
 
+/**
+ * How to compute a tree's sequences and outcomes from the probabilities of its logic (one diagram
+ * root per sequence and range) and the values of its numbers: the recipe holds no probability, so
+ * the base case and every Monte Carlo trial compute with the same code (`treeNumbers`).
+ */
+export interface TreeRecipe {
+  tree: EventTree;
+  /** cells[i·R + r]: sequence i in range r — the index of its logic root, and its plain branch factors in heading order. */
+  cells: { root: number; factors: { key: string; fails: boolean }[] }[];
+  /** Outcome index of each sequence. */
+  outcomeOf: number[];
+}
+
+/** The numbers of one tree at one set of values. */
+export interface TreeNumbers {
+  rangeP: number[];
+  /** [sequence][range]: P(sequence | range) and its annual part. */
+  conditional: number[][];
+  byRange: number[][];
+  probability: number[];
+  /** [outcome][range] and annual. */
+  outcomeByRange: number[][];
+  outcomeProbability: number[];
+}
+
+/**
+ * Builds the logic of every sequence × range as one conjunction on the compiled manager and
+ * appends the roots to `roots` (the recipe refers to them by their index there).
+ */
+export function treeRecipe(study: Study, model: LogicModel, compiled: CompiledLogic, tree: EventTree, roots: number[]): TreeRecipe {
+  const m = compiled.manager;
+  const R = tree.load.ranges.length;
+  const node = (id: string) => logicNode(study, model, compiled, id).node;
+  const logicOf = (c: BranchCondition, r: number): number | undefined =>
+    c.kind === 'gate' ? node(c.gate) : c.kind === 'atleast' ? m.atleast(c.k[r]!, c.of.map(node)) : undefined;
+  const keyOf = (c: BranchCondition, r: number): string | undefined => (c.kind === 'probability' ? c.key : c.kind === 'by-range' ? c.keys[r]! : undefined);
+  const cells: TreeRecipe['cells'] = [];
+  for (const s of tree.sequences) {
+    for (let r = 0; r < R; r++) {
+      const logic: number[] = [];
+      const factors: { key: string; fails: boolean }[] = [];
+      s.path.forEach((state, h) => {
+        if (state === null) return;
+        const c = tree.headings[h]!.fails;
+        const key = keyOf(c, r);
+        if (key !== undefined) factors.push({ key, fails: state === 'fails' });
+        else {
+          const n = logicOf(c, r)!;
+          logic.push(state === 'fails' ? n : m.not(n));
+        }
+      });
+      cells.push({ root: roots.length, factors });
+      roots.push(m.andAll(logic));
+    }
+  }
+  const outcomeIndex = new Map(tree.outcomes.map((o, i) => [o.id, i]));
+  return { tree, cells, outcomeOf: tree.sequences.map((s) => outcomeIndex.get(s.outcome)!) };
+}
+
+/** A tree's numbers from its logic roots' probabilities (`logicP[root]`) and its numbers' values. */
+export function treeNumbers(recipe: TreeRecipe, logicP: ArrayLike<number>, value: Value): TreeNumbers {
+  const { tree, cells } = recipe;
+  const R = tree.load.ranges.length;
+  const rangeP = rangeProbabilities(tree, value);
+  const conditional: number[][] = [];
+  const byRange: number[][] = [];
+  const probability: number[] = [];
+  for (let i = 0; i < tree.sequences.length; i++) {
+    const c = new Array<number>(R);
+    const a = new Array<number>(R);
+    for (let r = 0; r < R; r++) {
+      const cell = cells[i * R + r]!;
+      let factor = 1;
+      for (const f of cell.factors) {
+        const q = value(f.key);
+        factor *= f.fails ? q : 1 - q;
+      }
+      c[r] = factor * logicP[cell.root]!;
+      a[r] = rangeP[r]! * c[r]!;
+    }
+    conditional.push(c);
+    byRange.push(a);
+    probability.push(sum(a));
+  }
+  const outcomeByRange: number[][] = [];
+  const outcomeProbability: number[] = [];
+  tree.outcomes.forEach((_, o) => {
+    const a = new Array<number>(R).fill(0);
+    for (let r = 0; r < R; r++) {
+      let s = 0;
+      for (let i = 0; i < byRange.length; i++) if (recipe.outcomeOf[i] === o) s += byRange[i]![r]!;
+      a[r] = s;
+    }
+    outcomeByRange.push(a);
+    outcomeProbability.push(sum(a));
+  });
+  return { rangeP, conditional, byRange, probability, outcomeByRange, outcomeProbability };
+}
+
 export function quantifyTree(study: Study, model: LogicModel, compiled: CompiledLogic, p: Float64Array, value: Value, tree: EventTree): EventTreeResult {
   const m = compiled.manager;
   const R = tree.load.ranges.length;
-  const rangeP = rangeProbabilities(tree, value);
   const node = (id: string) => logicNode(study, model, compiled, id).node;
 
-  // branch[h][r]
+  // branch[h][r]: the branch numbers a spreadsheet would multiply, shown beside the exact values.
   const branch: Branch[][] = tree.headings.map((h) => tree.load.ranges.map((_, r) => branchOf(h.fails, r)));
   function branchOf(c: BranchCondition, r: number): Branch {
     switch (c.kind) {
@@ -55,44 +153,31 @@ export function quantifyTree(study: Study, model: LogicModel, compiled: Compiled
 
   // Every sequence × range as one conjunction; one prepared pass evaluates them all.
   const roots: number[] = [];
-  const factors: number[] = [];
-  const products: number[] = [];
-  for (const s of tree.sequences) {
-    for (let r = 0; r < R; r++) {
-      const logic: number[] = [];
-      let factor = 1;
+  const recipe = treeRecipe(study, model, compiled, tree, roots);
+  const numbers = treeNumbers(recipe, new ProbabilityEvaluator(m, roots).evaluate(p), value);
+  const rangeP = numbers.rangeP;
+  const products = tree.sequences.map((s) =>
+    Array.from({ length: R }, (_, r) => {
       let product = 1;
       s.path.forEach((state, h) => {
-        if (state === null) return;
-        const b = branch[h]![r]!;
-        product *= marginal(b, state);
-        if ('q' in b) factor *= state === 'fails' ? b.q : 1 - b.q;
-        else logic.push(state === 'fails' ? b.node : m.not(b.node));
+        if (state !== null) product *= marginal(branch[h]![r]!, state);
       });
-      roots.push(m.andAll(logic));
-      factors.push(factor);
-      products.push(product);
-    }
-  }
-  const logicP = new ProbabilityEvaluator(m, roots).evaluate(p);
+      return product;
+    }),
+  );
 
-  const sequences: EventTreeResult['sequences'] = tree.sequences.map((s, i) => {
-    const conditional = Array.from({ length: R }, (_, r) => factors[i * R + r]! * logicP[i * R + r]!);
-    const byRange = conditional.map((c, r) => rangeP[r]! * c);
-    return {
-      id: s.id,
-      path: [...s.path],
-      outcome: s.outcome,
-      conditional,
-      by_range: byRange,
-      probability: sum(byRange),
-      product_of_branches: sum(Array.from({ length: R }, (_, r) => rangeP[r]! * products[i * R + r]!)),
-    };
-  });
-  const outcomes: EventTreeResult['outcomes'] = tree.outcomes.map((o) => {
+  const sequences: EventTreeResult['sequences'] = tree.sequences.map((s, i) => ({
+    id: s.id,
+    path: [...s.path],
+    outcome: s.outcome,
+    conditional: numbers.conditional[i]!,
+    by_range: numbers.byRange[i]!,
+    probability: numbers.probability[i]!,
+    product_of_branches: sum(Array.from({ length: R }, (_, r) => rangeP[r]! * products[i]![r]!)),
+  }));
+  const outcomes: EventTreeResult['outcomes'] = tree.outcomes.map((o, k) => {
     const mine = sequences.filter((s) => s.outcome === o.id);
-    const byRange = Array.from({ length: R }, (_, r) => sum(mine.map((s) => s.by_range[r]!)));
-    return { id: o.id, title: o.title, probability: sum(byRange), by_range: byRange, product_of_branches: sum(mine.map((s) => s.product_of_branches)) };
+    return { id: o.id, title: o.title, probability: numbers.outcomeProbability[k]!, by_range: numbers.outcomeByRange[k]!, product_of_branches: sum(mine.map((s) => s.product_of_branches)) };
   });
   const bases = new Set(tree.load.ranges.map((r) => r.basis));
   const load: EventTreeResult['load'] = {

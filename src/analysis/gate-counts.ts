@@ -73,3 +73,17 @@ export function gateCount(study: Study, model: LogicModel, compiled: CompiledLog
     bdd_nodes: m.size(m.exactlyAll(roots)),
   };
 }
+
+/**
+ * The diagrams a count set's distribution is read from, appended to `roots`: "exactly j of the set
+ * fail", j = 0..n (the same diagrams `countDistribution` evaluates), so a Monte Carlo trial gets
+ * P(at least j) as `tails` of their probabilities, exactly as the section does at the base case.
+ */
+export function countRecipe(study: Study, model: LogicModel, compiled: CompiledLogic, set: CountSet, roots: number[]): { set: CountSet; exactly: number[] } {
+  const nodes = set.of.map((id) => logicNode(study, model, compiled, id).node);
+  const exactly = compiled.manager.exactlyAll(nodes).map((r) => {
+    roots.push(r);
+    return roots.length - 1;
+  });
+  return { set, exactly };
+}

@@ -57,6 +57,7 @@ export function describeStudy(study: Study): Pick<Results, 'format' | 'tool' | '
   if (study.meta.issued) study_.issued = study.meta.issued;
   if (study.meta.scope) study_.scope = study.meta.scope;
   if (study.meta.description) study_.description = study.meta.description;
+  if (study.meta.report) study_.report = { ...study.meta.report, ...(study.meta.report.omit ? { omit: [...study.meta.report.omit] } : {}) };
   const files = study.files.map((f) => ({ path: f.path, sha256: f.sha256 }));
   return {
     format: 'faultbook-results/1',

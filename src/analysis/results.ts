@@ -203,6 +203,22 @@ export interface UncertaintyResult {
   clipped_trials: number;
 }
 
+/** Monte Carlo summary of one derived quantity, from the same trials as the tops' uncertainty. */
+export interface QuantityUncertainty {
+  kind: 'event-tree-outcome' | 'event-tree-sequence' | 'failure-mode' | 'failure-modes-combined' | 'gate-count';
+  /** The tree id (outcomes, sequences), failure-mode set id, or count id. */
+  owner: string;
+  /** Outcome / sequence / mode id; 'sum' | 'lower' | 'upper' for combined modes; 'at-least-<j>' for gate counts. */
+  id: string;
+  /** The base-case value, equal to the one printed in its own section. */
+  point: number;
+  mean: number;
+  median: number;
+  p05: number;
+  p95: number;
+  sd: number;
+}
+
 export interface ForecastResult {
   /** Absent for the base case. */
   scenario?: string;
@@ -264,6 +280,8 @@ export interface Results {
     /** Markdown from study.yaml, rendered by the report. */
     scope?: string;
     description?: string;
+    /** study.yaml `report:` as read: appendix label, client, consultant, logo path, sections left out. */
+    report?: { appendix?: string; client?: string; consultant?: string; logo?: string; omit?: string[] };
   };
   inputs: { sha256: string; files: { path: string; sha256: string }[] };
   settings: Record<string, number | string>;
@@ -281,6 +299,12 @@ export interface Results {
   sensitivity?: SensitivityResult[];
   scenarios?: ScenarioResult[];
   uncertainty?: UncertaintyResult[];
+  /**
+   * The event-tree outcomes and sequences (annual probabilities), each failure mode's adjusted
+   * annual probability and the combined annual sum / lower / upper, and each gate count's
+   * P(at least j fail), j = 1..n, from the same Monte Carlo trials as `uncertainty`.
+   */
+  outcome_uncertainty?: QuantityUncertainty[];
   forecast?: ForecastResult[];
   /** Filled by the common-cause, gate-count and event-tree work (issue: shared causes). */
   common_cause?: CommonCauseResult[];

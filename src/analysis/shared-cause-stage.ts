@@ -8,7 +8,7 @@ import { NodeBudgetExceeded } from '../logic/index.js';
 import { StudyError } from '../study/errors.js';
 import type { Study } from '../study/types.js';
 import type { AnalysisContext, Stage } from './analyze.js';
-import { commonCauseAdjustment, uniModalBounds } from './combine-modes.js';
+import { modeNumbers } from './combine-modes.js';
 import { studyValues } from './event-probability.js';
 import { quantifyTree } from './event-trees.js';
 import { gateCount } from './gate-counts.js';
@@ -129,39 +129,24 @@ function combineModes(study: Study, trees: EventTreeResult[], value: (key: strin
   return (study.failureModes ?? []).map((set) => {
     const tree = trees.find((t) => t.id === set.tree)!;
     const rangeP = tree.load.ranges.map((r) => r.probability);
-    const R = rangeP.length;
-    const conditional = set.modes.map((mode) => {
-      const b = mode.basis;
-      if (b.kind === 'probability') return rangeP.map(() => value(b.key));
-      if (b.kind === 'by-range') return b.keys.map(value);
-      const o = tree.outcomes.find((x) => x.id === b.outcome)!;
-      // P(outcome | range): the outcome's annual probability in the range over the range's.
-      return o.by_range.map((x, r) => (rangeP[r]! > 0 ? x / rangeP[r]! : 0));
-    });
-    const perRange = Array.from({ length: R }, (_, r) => conditional.map((c) => c[r]!));
-    const byRange = perRange.map(uniModalBounds);
-    const adjusted = perRange.map(commonCauseAdjustment);
-    const annual = (xs: number[]) => xs.reduce((s, x, r) => s + rangeP[r]! * x, 0);
+    const n = modeNumbers(set, rangeP, (id) => tree.outcomes.find((x) => x.id === id)!.by_range, value);
     return {
       id: set.id,
       title: set.title,
       tree: tree.id,
       ranges: tree.load.ranges.map((r) => ({ id: r.id, title: r.title, probability: r.probability })),
-      modes: set.modes.map((mode, i) => {
-        const adj = adjusted.map((a) => a[i]!);
-        return {
-          id: mode.id,
-          title: mode.title,
-          basis: mode.basis.kind,
-          ...(mode.basis.kind === 'outcome' ? { outcome: mode.basis.outcome } : {}),
-          conditional: conditional[i]!,
-          annual: annual(conditional[i]!),
-          adjusted: adj,
-          adjusted_annual: annual(adj),
-        };
-      }),
-      by_range: byRange,
-      annual: { sum: annual(byRange.map((b) => b.sum)), lower: annual(byRange.map((b) => b.lower)), upper: annual(byRange.map((b) => b.upper)) },
+      modes: set.modes.map((mode, i) => ({
+        id: mode.id,
+        title: mode.title,
+        basis: mode.basis.kind,
+        ...(mode.basis.kind === 'outcome' ? { outcome: mode.basis.outcome } : {}),
+        conditional: n.conditional[i]!,
+        annual: n.annual[i]!,
+        adjusted: n.adjusted[i]!,
+        adjusted_annual: n.adjustedAnnual[i]!,
+      })),
+      by_range: n.byRange,
+      annual: n.total,
     };
   });
 }

@@ -6,19 +6,28 @@
  * (`EventPlan`) and the tops through the prepared diagram pass, all without re-reading or
  * re-building anything. Seeded by settings.seed: the same study gives the same numbers.
  */
+import { notSampledWarning } from './input-warnings.js';
+import { flattenDiagram } from '../logic/flat-diagram.js';
 import type { Study } from '../study/types.js';
+import type { Stage } from './analyze.js';
 import { baseCase } from './case.js';
-import type { CaseQuantifier } from './case-quantifier.js';
+import { CaseQuantifier } from './case-quantifier.js';
 import { commonCauseOf } from './common-cause.js';
-import { EventPlan, parametersRead } from './event-plan.js';
-import type { UncertaintyResult } from './results.js';
-import { ParameterSampler, uniformRows } from './sampling.js';
-import { summarize } from './statistics.js';
+import { parametersSampled } from './event-plan.js';
+import { derivedRecipe, sectionValue, type DerivedRecipe } from './outcome-quantities.js';
+import type { QuantityUncertainty, Results, UncertaintyResult } from './results.js';
+import { ParameterSampler } from './sampling.js';
+import { meanAndSd, quantileSorted, sortedCopy, summarize } from './statistics.js';
+import { runTrials, type TrialJob } from './trials.js';
 
 export interface UncertaintyOptions {
   progress?: (label: string, done: number, total: number) => void;
   /** Overrides settings.samples (the benchmark). */
   samples?: number;
+  /** Trials per diagram pass (trials.ts); no number depends on it. */
+  batch?: number;
+  /** Also quantify the event trees, failure modes and gate counts in every trial (default true). */
+  outcomes?: boolean;
 }
 
 /** Trials between progress reports. */
@@ -28,6 +37,9 @@ const PROGRESS_EVERY = 1000;
 export interface MonteCarloRun {
   /** values[t] = that top's probability in each trial. */
   values: Float64Array[];
+  /** The derived quantities' recipe and their values per trial (derived[q][trial]), when the study has any. */
+  recipe?: DerivedRecipe;
+  derived: Float64Array[];
   samples: number;
   method: 'monte-carlo' | 'latin-hypercube';
   sampled: string[];
@@ -38,50 +50,75 @@ export interface MonteCarloRun {
 /** Runs the trials; undefined when no parameter states a samplable uncertainty or samples is 0. */
 export function monteCarlo(study: Study, quantifier: CaseQuantifier, options: UncertaintyOptions = {}): MonteCarloRun | undefined {
   const samples = options.samples ?? study.settings.samples;
-  const sampler = new ParameterSampler(study, parametersRead(study));
+  const sampler = new ParameterSampler(study, parametersSampled(study));
   if (sampler.varying.size === 0 || !(samples > 0)) return undefined;
-  const c = baseCase();
-  const plan = new EventPlan(study, c, sampler.varying);
-  const { evaluator } = quantifier.diagram(c);
-  const method = study.settings.sampling;
-  const rows = uniformRows(study.settings.seed, method, samples, sampler.dimensions);
-  const uniforms = new Float64Array(sampler.dimensions);
-  const parameterValues = Float64Array.from(study.parameters, (p) => p.value);
-  const eventProbability = new Float64Array(study.events.length);
+  const { compiled } = quantifier.diagram(baseCase());
+  const topRoots = quantifier.model.topGates.map((g) => compiled.gateRoots[g]!);
+  const derived = options.outcomes === false ? undefined : derivedRecipe(study, quantifier.model, compiled);
   // The diagram's variables: the events, then the common-cause expansion's shared events (common-cause.ts).
-  const expansion = commonCauseOf(study);
-  const parameterIndex = new Map(study.parameters.map((p, i) => [p.key, i]));
-  const variableProbability = new Float64Array(expansion.variableCount);
-  const valueOf = (key: string): number => parameterValues[parameterIndex.get(key)!]!;
-  const values = study.tops.map(() => new Float64Array(samples));
+  const variables = commonCauseOf(study).variableCount;
+  const job: TrialJob = {
+    study,
+    diagram: flattenDiagram(compiled.manager, [...topRoots, ...(derived?.roots ?? [])], variables),
+    topCount: topRoots.length,
+    samples,
+  };
+  if (derived) job.recipe = derived.recipe;
+  const method = study.settings.sampling;
   const label = method === 'latin-hypercube' ? 'Latin hypercube' : 'Monte Carlo';
-  for (let t = 0; t < samples; t++) {
-    rows.row(t, uniforms);
-    sampler.apply(uniforms, parameterValues, t);
-    plan.evaluate(parameterValues, eventProbability);
-    expansion.apply(eventProbability, valueOf, variableProbability);
-    const tops = evaluator.evaluate(variableProbability);
-    for (let k = 0; k < tops.length; k++) values[k]![t] = tops[k]!;
-    if (options.progress && (t + 1) % PROGRESS_EVERY === 0) options.progress(label, t + 1, samples);
-  }
+  let reported = 0;
+  const block = runTrials(job, 0, samples, {
+    ...(options.batch !== undefined ? { batch: options.batch } : {}),
+    onBatch: (done) => {
+      if (!options.progress) return;
+      while (reported + PROGRESS_EVERY <= done) {
+        reported += PROGRESS_EVERY;
+        options.progress(label, reported, samples);
+      }
+    },
+  });
   options.progress?.(label, samples, samples);
-  return {
-    values,
+  const run: MonteCarloRun = {
+    values: block.tops,
+    derived: block.derived,
     samples,
     method,
     sampled: [...sampler.varying].sort((a, b) => a - b).map((i) => study.parameters[i]!.key),
     held: sampler.held,
-    clippedTrials: sampler.clippedTrials,
+    clippedTrials: block.clippedTrials,
   };
+  if (derived) run.recipe = derived.recipe;
+  return run;
+}
+
+/** Mean, median, 5th and 95th percentiles (Hyndman–Fan 7, statistics.ts) and sd of each derived quantity, beside its section's value. */
+export function outcomeUncertainty(run: MonteCarloRun, sections: Pick<Results, 'event_trees' | 'failure_modes' | 'gate_counts'>): QuantityUncertainty[] {
+  if (!run.recipe) return [];
+  return run.recipe.quantities.map((q, k) => {
+    const values = run.derived[k]!;
+    const sorted = sortedCopy(values);
+    const { mean, sd } = meanAndSd(values);
+    return {
+      kind: q.kind,
+      owner: q.owner,
+      id: q.id,
+      point: sectionValue(sections, q),
+      mean,
+      median: quantileSorted(sorted, 0.5),
+      p05: quantileSorted(sorted, 0.05),
+      p95: quantileSorted(sorted, 0.95),
+      sd,
+    };
+  });
 }
 
 export function uncertainty(
   study: Study,
   quantifier: CaseQuantifier,
   options: UncertaintyOptions = {},
-): { results: UncertaintyResult[]; held: { key: string; reason: string }[] } {
+): { results: UncertaintyResult[]; held: { key: string; reason: string }[]; run?: MonteCarloRun } {
   const run = monteCarlo(study, quantifier, options);
-  if (!run) return { results: [], held: new ParameterSampler(study, parametersRead(study)).held };
+  if (!run) return { results: [], held: new ParameterSampler(study, parametersSampled(study)).held };
   const results = study.tops.map((top, k): UncertaintyResult => {
     const s = summarize(run.values[k]!);
     return {
@@ -103,5 +140,23 @@ export function uncertainty(
       clipped_trials: run.clippedTrials,
     };
   });
-  return { results, held: run.held };
+  return { results, held: run.held, run };
 }
+
+/**
+ * The uncertainty stage, after the shared-causes stage so the derived quantities' sections (their
+ * base-case values) exist: the tops' uncertainty and, from the same trials, the outcomes'.
+ */
+export const uncertaintyStage: Stage = (ctx) => {
+  const { study } = ctx;
+  const quantifier = new CaseQuantifier(study, ctx.model, ctx.compiled);
+  const u = uncertainty(study, quantifier, ctx.options.progress ? { progress: ctx.options.progress } : {});
+  const out: Partial<Results> = {};
+  if (u.results.length > 0) out.uncertainty = u.results;
+  const outcomes = u.run ? outcomeUncertainty(u.run, ctx.results) : [];
+  if (outcomes.length > 0) out.outcome_uncertainty = outcomes;
+  if (u.held.length > 0) {
+    out.warnings = [...ctx.results.warnings, ...u.held.map((h) => notSampledWarning(study, h))];
+  }
+  return out;
+};

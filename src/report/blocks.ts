@@ -1,3 +1,4 @@
+import { formatCount } from './format.js';
 import type { Block, CalloutBlock, CalloutTone, KeyValueBlock, Run, TableBlock, TableColumn, TableRow, TextBlock } from './view.js';
 
 /** Small constructors so the section rules read as what they say, not as object literals. */
@@ -11,6 +12,13 @@ export function run(part: Part): Run {
 export const code = (text: string): Run => ({ text, code: true });
 export const strong = (text: string): Run => ({ text, strong: true });
 export const em = (text: string): Run => ({ text, em: true });
+
+/**
+ * A pointer to another section by its slot name: `{}` in the text becomes its number ("see {}" →
+ * "see C.21"); the whole run disappears when that section is absent, so write it to read well
+ * either way.
+ */
+export const xref = (section: string, text: string, anchor?: string): Run => ({ text, ref: { section, ...(anchor ? { anchor } : {}) } });
 
 export function para(...parts: Part[]): TextBlock {
   return { kind: 'text', runs: parts.map(run) };
@@ -41,6 +49,11 @@ export function row(cells: string[], extra: Omit<TableRow, 'cells'> = {}): Table
 
 export function subheading(id: string, text: string): Block {
   return { kind: 'subheading', id, text };
+}
+
+/** A count with its noun agreeing: `1 source`, `3 sources`, `1 analysis`/`2 analyses` with the plural given. */
+export function counted(n: number, singular: string, plural = `${singular}s`): string {
+  return `${formatCount(n)} ${n === 1 ? singular : plural}`;
 }
 
 /** `a, b and c`. */

@@ -19,15 +19,27 @@ export interface BuildContext {
   nextTable(): string;
   /** "Figure 6.1", … within the current section. */
   nextFigure(): string;
+  /**
+   * The sections built so far, by slot name: their number (with the appendix label) and anchor id.
+   * Complete only for rules that run after the others (`late` slots: the key findings).
+   */
+  sections: ReadonlyMap<string, { number: string; id: string; section: Section }>;
 }
 
 /** One section of the appendix: returns null when its data is absent (the section is then left out). */
 export type SectionRule = (results: Results, ctx: BuildContext) => Section | null;
 
-export function makeContext(results: Results, inputs: InputFile[], paper: Paper, number: string): BuildContext {
+export function makeContext(
+  results: Results,
+  inputs: InputFile[],
+  paper: Paper,
+  number: string,
+  sections: ReadonlyMap<string, { number: string; id: string; section: Section }> = new Map(),
+): BuildContext {
   let tables = 0;
   let figures = 0;
   return {
+    sections,
     inputs,
     paper,
     number,

@@ -8,7 +8,7 @@
  * Shares of the top-event probability: percentages. Durations and rates use the project's unit
  * formatters (src/reliability/units.ts), so the appendix writes them as the study reader reads them.
  */
-import { formatDuration as unitsFormatDuration, formatRate as unitsFormatRate } from '../reliability/units.js';
+import { formatDuration as unitsFormatDuration, formatRate as unitsFormatRate, unitInYears, type DurationUnit } from '../reliability/units.js';
 
 const DASH = '—';
 
@@ -112,6 +112,42 @@ export function formatQuantity(quantity: string, value: number | undefined | nul
     default:
       return formatNumber(value);
   }
+}
+
+/** Unit names for durations shown in a written unit: singular and plural. */
+const UNIT_WORDS: Record<DurationUnit, [string, string]> = {
+  year: ['year', 'years'],
+  month: ['month', 'months'],
+  week: ['week', 'weeks'],
+  day: ['day', 'days'],
+  h: ['h', 'h'],
+  min: ['min', 'min'],
+};
+
+/** The unit a study value was written in (`24 h` → h, `2e-3 /h` → h), if it is one we know. */
+function writtenUnit(written: string | undefined): DurationUnit | undefined {
+  const m = /^\s*[-+]?[\d.]+(?:[eE][-+]?\d+)?\s*(?:\/|per\s+)?\s*([A-Za-z]+)\s*$/.exec(written ?? '');
+  if (!m) return undefined;
+  const years = unitInYears(m[1]!);
+  if (years === undefined) return undefined;
+  return (Object.keys(UNIT_WORDS) as DurationUnit[]).find((k) => unitInYears(k) === years);
+}
+
+/**
+ * A value of a study quantity in the unit its parameter was written in, so the appendix keeps the
+ * author's units: a rate written `1e-3 /h` stays per hour, a duration written `24 h` stays hours
+ * (halved, `12 h`, not `0.5 days`). Other quantities, or an unknown unit, as formatQuantity.
+ */
+export function formatAsWritten(quantity: string, value: number | undefined | null, written: string | undefined): string {
+  if (!finite(value)) return DASH;
+  const unit = writtenUnit(written);
+  if (unit && quantity === 'rate') return unitsFormatRate(value, unit);
+  if (unit && quantity === 'duration') {
+    const amount = value / unitInYears(unit)!;
+    const text = formatNumber(amount);
+    return `${text} ${UNIT_WORDS[unit][text === '1' ? 0 : 1]}`;
+  }
+  return formatQuantity(quantity, value);
 }
 
 /** Positional notation with `figures` significant figures (never exponent form for 1e-3 ≤ |x| < 1e5). */

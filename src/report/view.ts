@@ -16,6 +16,14 @@ export interface Run {
   em?: boolean;
   /** Shown in the identifier style (ids of events, gates, sources, parameters). */
   code?: boolean;
+  /** Anchor id this run links to (a section, table or subheading of the appendix). */
+  link?: string;
+  /**
+   * Set by a section rule to point at another section by its slot name; the build replaces `{}` in
+   * the text with that section's number, sets `link`, and drops the run when the section is absent.
+   * Never present in a finished view.
+   */
+  ref?: { section: string; anchor?: string };
 }
 
 /** Markdown written by the study author (scope, description, assumption bodies). Raw HTML is not allowed. */
@@ -150,11 +158,18 @@ export interface Cover {
   /** The date shown on the cover: issued, else as_of. */
   date: string;
   draft: boolean;
+  /** From study.yaml `report:`. */
+  client?: string;
+  consultant?: string;
+  /** The logo image, embedded (never fetched). */
+  logo?: { media_type: 'image/png' | 'image/jpeg'; base64: string; path: string };
 }
 
 export interface Appendix {
   format: 'faultbook-appendix/1';
   paper: Paper;
+  /** Appendix label from study.yaml `report: appendix` ("C"): it prefixes every section, table and figure number. */
+  label?: string;
   /** Document language for HTML `lang` and PDF metadata. */
   language: 'en';
   cover: Cover;

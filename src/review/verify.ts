@@ -263,12 +263,13 @@ function compareResults(recomputedJson: string, archivedEntry: TarFile | undefin
   const diff = diffJson(archived, recomputed, { ignore: ['$.tool.version'], limit: SHOWN_DIFFERENCES });
   if (diff.count > 0) {
     const what = diff.numeric === diff.count ? `${diff.count} number${diff.count === 1 ? '' : 's'}` : `${diff.count} value${diff.count === 1 ? '' : 's'} (${diff.numeric} of them numbers)`;
+    const verb = diff.count === 1 ? 'differs' : 'differ';
     differences.push({
       kind: sameTool ? 'recomputed-differs' : 'tool-version',
       file,
       message: sameTool
-        ? `${file}: recomputing from the archived inputs gives different results: ${what} differ`
-        : `${file}: faultbook ${toolVersion} gives different numbers from faultbook ${manifest.tool.version}, which made the archive: ${what} differ`,
+        ? `${file}: recomputing from the archived inputs gives different results: ${what} ${verb}`
+        : `${file}: faultbook ${toolVersion} gives different numbers from faultbook ${manifest.tool.version}, which made the archive: ${what} ${verb}`,
       details: diff.differences.map((d) => `${d.path}: archived ${showValue(d.expected)}, recomputed ${showValue(d.actual)}`),
     });
   } else if (sameTool && !duplicate) {

@@ -4,7 +4,7 @@
  * (so one run reports as many as it can) and thrown together.
  */
 import { parseDate, yearsBetween } from '../reliability/units.js';
-import { ErrorCollector, FollowOnError, StudyError } from './errors.js';
+import { ErrorCollector, FollowOnError, StudyError, StudyErrors } from './errors.js';
 import { checkLogic, suggest } from './check-logic.js';
 import { readSharedCauseSections } from './event-trees.js';
 import { fitProvenance, fittedValue } from './fits.js';
@@ -13,6 +13,9 @@ import { readParameter, readQuantity, checkDomain, quantityOfField } from './qua
 import { entriesOf, mergeSections, type Sections } from './sections.js';
 import {
   MODEL_FIELDS,
+  OPTIONAL_SECTIONS,
+  type OptionalSection,
+  type ReportOptions,
   type Assumption,
   type BasicEvent,
   type CommonCauseGroup,
@@ -244,7 +247,47 @@ function readMeta(sections: Sections): StudyMeta {
   if (issued !== undefined) meta.issued = String(issued);
   if (typeof get('scope') === 'string') meta.scope = get('scope') as string;
   if (typeof get('description') === 'string') meta.description = get('description') as string;
+  const report = readReportBlock(sections);
+  if (report) meta.report = report;
   return meta;
+}
+
+/**
+ * study.yaml `report:` (shape already checked by the schema): the appendix label, names and logo
+ * path as written, and the sections to leave out, each checked against the optional ones.
+ */
+function readReportBlock(sections: Sections): ReportOptions | undefined {
+  const located = sections.get('report');
+  if (!located || located.value === null || typeof located.value !== 'object') return undefined;
+  const raw = located.value as Record<string, unknown>;
+  const out: ReportOptions = {};
+  if (typeof raw.appendix === 'string') out.appendix = raw.appendix;
+  if (typeof raw.client === 'string') out.client = raw.client;
+  if (typeof raw.consultant === 'string') out.consultant = raw.consultant;
+  if (typeof raw.logo === 'string') out.logo = raw.logo;
+  if (Array.isArray(raw.omit)) {
+    const names: string[] = OPTIONAL_SECTIONS.slice();
+    const errors: StudyError[] = [];
+    const omit: OptionalSection[] = [];
+    raw.omit.forEach((name, i) => {
+      const text = String(name);
+      if (names.includes(text)) {
+        if (!omit.includes(text as OptionalSection)) omit.push(text as OptionalSection);
+      } else {
+        errors.push(
+          new StudyError(
+            `report: omit names unknown section '${text}'`,
+            located.file.at(['report', 'omit', i]),
+            suggest(text, names, `one of the optional sections: ${names.join(', ')}`),
+          ),
+        );
+      }
+    });
+    if (errors.length === 1) throw errors[0]!;
+    if (errors.length > 1) throw new StudyErrors(errors);
+    out.omit = omit;
+  }
+  return out;
 }
 
 function readSettings(sections: Sections): Settings {

@@ -10,7 +10,7 @@ import { buildStudy } from './build.js';
 import { StudyError, StudyErrors } from './errors.js';
 import { runFit } from './fits.js';
 import { checkStructure, type StudyFileKind } from './schema.js';
-import type { InputFile, Pos, Study } from './types.js';
+import { MAX_LOGO_BYTES, type InputFile, type Pos, type Study } from './types.js';
 import { parseYamlFile, type YamlFile } from './yaml.js';
 
 /** A study file larger than this is refused before it is read (a real study is kilobytes). */
@@ -81,9 +81,34 @@ export function readStudy(folder: string): Study {
     files,
     runFit: (fit, asOf) => void runFit(fit, readText, asOf),
   });
+  const logo = study.meta.report?.logo;
+  if (logo !== undefined) study.files.push(readLogo(root, logo, logoPosition(yamlFiles)));
   // The manifest lists files in a fixed order, whatever order they were read in.
   study.files.sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0));
   return study;
+}
+
+function logoPosition(yamlFiles: YamlFile[]): Pos | undefined {
+  const file = yamlFiles.find((f) => f.data !== null && typeof f.data === 'object' && 'report' in (f.data as object));
+  return file?.at(['report', 'logo']);
+}
+
+/**
+ * The report logo: a PNG or JPEG inside the study folder, recognised by its signature bytes (not its
+ * name), small enough to embed. It becomes an input file like any other, hashed in the manifest.
+ */
+function readLogo(root: string, rel: string, at: Pos | undefined): InputFile {
+  const where = at ?? { file: 'study.yaml', line: 1, col: 1 };
+  const full = confine(root, rel, where);
+  const size = statSync(full).size;
+  if (size > MAX_LOGO_BYTES) {
+    throw new StudyError(`report logo ${rel} is ${Math.ceil(size / 1024)} KiB, larger than a logo may be`, where, `a PNG or JPEG of at most ${MAX_LOGO_BYTES / 1024} KiB`);
+  }
+  const buf = readFileSync(full);
+  const png = buf.length >= 8 && buf.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]));
+  const jpeg = buf.length >= 3 && buf[0] === 0xff && buf[1] === 0xd8 && buf[2] === 0xff;
+  if (!png && !jpeg) throw new StudyError(`report logo ${rel} is neither a PNG nor a JPEG image`, where, 'a PNG or JPEG file inside the study folder');
+  return { path: rel, sha256: sha256(buf), text: '', image: { media_type: png ? 'image/png' : 'image/jpeg', base64: buf.toString('base64') } };
 }
 
 const strictUtf8 = new TextDecoder('utf-8', { fatal: true, ignoreBOM: true });

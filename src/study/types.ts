@@ -170,13 +170,59 @@ export interface StudyMeta {
   /** Markdown: purpose and scope, system description. */
   scope?: string;
   description?: string;
+  /** study.yaml `report:`: how the appendix is presented inside a larger report. */
+  report?: ReportOptions;
+}
+
+/**
+ * Sections of the appendix a study may leave out with `report: omit:`. Document control, the key
+ * findings, the cautions and the results are never optional: a reviewer always needs them.
+ */
+export const OPTIONAL_SECTIONS = [
+  'description',
+  'assumptions',
+  'diagrams',
+  'events',
+  'provenance',
+  'cut-sets',
+  'importance',
+  'class-importance',
+  'sensitivity',
+  'scenarios',
+  'uncertainty',
+  'forecast',
+  'common-cause',
+  'gate-counts',
+  'event-trees',
+  'fits',
+  'manifest',
+  'methods',
+  'inputs',
+] as const;
+
+export type OptionalSection = (typeof OPTIONAL_SECTIONS)[number];
+
+/** A logo larger than this is refused: a cover logo is kilobytes, and the PDF embeds it. */
+export const MAX_LOGO_BYTES = 512 * 1024;
+
+export interface ReportOptions {
+  /** Appendix label prefixing section, table and figure numbers ("C" → "C.3", "Table C.3.1"). */
+  appendix?: string;
+  client?: string;
+  consultant?: string;
+  /** Path of a PNG or JPEG inside the study folder; read as an input file (hashed in the manifest). */
+  logo?: string;
+  omit?: OptionalSection[];
 }
 
 /** A file that went into the study, for the manifest and the inputs annex. */
 export interface InputFile {
   path: string;
   sha256: string;
+  /** The file as text; empty for an image. */
   text: string;
+  /** An image input (the report logo): its type and bytes, so the report can embed it. */
+  image?: { media_type: 'image/png' | 'image/jpeg'; base64: string };
 }
 
 export interface Warning {

@@ -90,7 +90,9 @@ describe('shared-causes sections of the appendix', () => {
     const modes = s.blocks.find((b): b is TableBlock => b.kind === 'table' && b.caption.startsWith('Failure modes'))!;
     const f = results.failure_modes![0]!;
     expect(modes.rows.at(-1)!.cells.at(-2)).toBe(formatProbability(f.annual.upper));
-    expect(JSON.stringify(s.blocks)).toContain('Hill, D.');
+    // The combination rule is cited once, in the methods annex the section points to.
+    expect(JSON.stringify(section(view, 'sec-methods')!.blocks)).toContain('Hill, D.');
+    expect(JSON.stringify(s.blocks)).toContain('"link":"method-failure-modes"');
   });
 
   it('leaves the sections out for a study without shared causes', () => {

@@ -192,7 +192,10 @@ describe('faultbook fit on the reference records', () => {
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/shape β\s+2\.102\s/);
+    // Lives are read into years, and the table says so beside η and B10.
     expect(r.stdout).toMatch(/scale η \(years\)\s+81\.88\s/);
+    expect(r.stdout).toMatch(/B10 life \(years\)/);
+    expect(r.stdout).toContain('normal-approx. lower 90%');
     expect(r.stdout).toContain('23 failures, 0 suspensions');
   });
 

@@ -74,7 +74,8 @@ describe('the fits section', () => {
     expect(gof).toContain('no reason at the 5% level to reject the Weibull law');
     expect(p).toContain('Provenance: fitted from data/ball-bearings.csv: 23 failures, 0 suspensions, maximum likelihood.');
     expect(p).toContain('Used by: drum-bearing.shape and drum-bearing.scale, for 2 basic events: drum-bearing-1 and drum-bearing-2.');
-    expect(p.some((x) => x.startsWith('Reading the plots: '))).toBe(true);
+    // How to read the plots is said once, in the methods annex, and the section points there.
+    expect(section.blocks.some((b) => b.kind === 'text' && b.runs.some((r) => r.link === 'method-fits' && /^Method and how to read the plots: \d+\.$/.test(r.text)))).toBe(true);
     expect(section.blocks.some((b) => b.kind === 'callout')).toBe(false);
   });
 

@@ -18,6 +18,7 @@ describe('view model', () => {
   it('runs the sections in the fixed order of the section list, numbering only those present', () => {
     const v = view();
     const order = SECTIONS.map((s) => `sec-${s.name}`);
+    // Key findings are built last (they point at the other sections) but sit where the list puts them.
     const ids = v.sections.map((s) => s.id);
     const positions = ids.map((id) => order.indexOf(id));
     expect(positions.every((p) => p >= 0)).toBe(true);
@@ -32,7 +33,8 @@ describe('view model', () => {
     const ids = view().sections.map((s) => s.id);
     const cautions = ids.indexOf('sec-cautions');
     expect(cautions).toBeGreaterThan(-1);
-    expect(cautions).toBeLessThanOrEqual(2);
+    // Only document control, the key findings (which point to the cautions) and the scope come first.
+    expect(ids.slice(0, cautions)).toEqual(['sec-title-block', 'sec-key-findings', 'sec-scope']);
     for (const later of ['sec-diagrams', 'sec-events', 'sec-results', 'sec-cut-sets']) expect(ids.indexOf(later)).toBeGreaterThan(cautions);
     const text = viewText(view());
     // The four points the cautions must make (DESIGN.md, "The appendix").
@@ -52,7 +54,7 @@ describe('view model', () => {
     expect(section(v, 'sec-importance')).toBeUndefined();
     const numbers = v.sections.filter((s) => s.number).map((s) => Number(s.number));
     expect(numbers).toEqual(numbers.map((_, i) => i + 1));
-    expect(buildViewModel(r, [], { paper: 'a4' }).sections.some((s) => s.id === 'sec-annex')).toBe(false);
+    expect(buildViewModel(r, [], { paper: 'a4' }).sections.some((s) => s.id === 'sec-inputs')).toBe(false);
   });
 
   it('prints the top-event numbers as the analysis gave them, through the one formatter', () => {
@@ -118,24 +120,27 @@ describe('view model', () => {
     expect(t.rows.find((row) => row.cells[0] === 'crew-on-site')!.cells[6]).toBe('off (0)');
   });
 
-  it('lists at most 50 cut sets, most probable first, and says how many were left out', () => {
+  it('lists at most CUT_SETS_SHOWN cut sets, most probable first, and says how many were left out', () => {
     const v = buildViewModel(bigTreeResults(), [], { paper: 'a4' });
     const t = tables(v).find((x) => x.id === 'tab-cuts-synthetic-top')!;
     expect(t.rows).toHaveLength(CUT_SETS_SHOWN);
     const keys = t.rows.map((row) => row.sortKeys![3] as number);
     expect(keys).toEqual([...keys].sort((a, b) => b - a));
     const text = viewText(v);
-    expect(text).toMatch(/The 50 most probable are shown; 10 more are in the cut-set CSV file\./);
+    expect(text).toMatch(/The 25 most probable are shown; 35 more are in the cut-set CSV file\./);
     expect(text).toMatch(/12 cut sets were dropped by the cutoff or the order limit, with a total probability of 3\.20E-09\./);
   });
 
-  it('ranks importance by Fussell–Vesely with a chart of the leading events', () => {
+  it('ranks importance by Fussell–Vesely, showing the events that carry a share or would raise the top', () => {
     const v = view();
     const t = tables(v).find((x) => x.id === 'tab-importance-spillway-short')!;
     expect(t.rows.slice(0, 3).map((row) => row.cells[1])).toEqual(['plc-fails', 'telemetry-link-lost', 'debris-blocks-spillway']);
     expect(t.rows[0]!.cells.slice(2)).toEqual(['6.90E-01', '9.97E-01', '6.90E-01', '92.7', '3.22']);
-    const chart = allBlocks(v).find((b) => b.kind === 'figure' && b.id === 'fig-importance-spillway-short');
-    expect(chart && chart.kind === 'figure' && (chart.parts[0]!.svg.match(/data-bar=/g) ?? []).length).toBe(14);
+    // Shown: FV at least 1E-03 or RAW at least 10 (src/report/sections/importance.ts); the note counts the rest.
+    const all = fixtureResults().tops.find((x) => x.id === 'spillway-short')!.importance!;
+    const shown = all.filter((i) => i.fussell_vesely >= 1e-3 || i.raw >= 10);
+    expect(t.rows).toHaveLength(shown.length);
+    if (shown.length < all.length) expect(t.note).toMatch(new RegExp(`^${all.length - shown.length} events? with FV below`));
   });
 
   it('records the manifest: tool version, every input digest, the settings and the seed', () => {
@@ -150,7 +155,7 @@ describe('view model', () => {
   });
 
   it('carries every input file verbatim in the annex', () => {
-    const annex = section(view(), 'sec-annex')!;
+    const annex = section(view(), 'sec-inputs')!;
     const pres = annex.blocks.filter((b) => b.kind === 'pre');
     expect(pres.map((p) => p.kind === 'pre' && p.label).sort()).toEqual(fixtureInputs().map((f) => f.path).sort());
     for (const f of fixtureInputs()) {

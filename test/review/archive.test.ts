@@ -147,7 +147,7 @@ describe('faultbook verify', () => {
     expect(r.code).toBe(3);
     expect(r.stdout).toContain('[changed-output] outputs/results.json: SHA-256 differs from the manifest');
     // The recomputation finds the changed number too, with its JSON path.
-    expect(r.stdout).toMatch(/\[recomputed-differs\] outputs\/results.json: .* 1 number differ/);
+    expect(r.stdout).toMatch(/\[recomputed-differs\] outputs\/results.json: .* 1 number differs/);
     expect(r.stdout).toMatch(/\$\.tops\[0\]\.probability\.exact: archived .*, recomputed /);
   });
 

@@ -34,7 +34,7 @@ export function formatFit(fit: WeibullFit, unit?: string): string {
   const lvl = percent(fit.bounds.level);
   const lr = fit.bounds.likelihoodRatio;
   const bound = (b: Bound | undefined): [string, string] => [sig(b?.lower), sig(b?.upper)];
-  const header = ['', 'estimate', `Fisher lower ${lvl}`, `Fisher upper ${lvl}`];
+  const header = ['', 'estimate', `normal-approx. lower ${lvl}`, `normal-approx. upper ${lvl}`];
   if (lr) header.push(`LR lower ${lvl}`, `LR upper ${lvl}`);
   // Likelihood-ratio columns: '—' where a bound is not finite, blank where none is computed (B10).
   const row = (name: string, value: number, fisher: Bound, lrCells: [string, string] = ['', '']): string[] => {
@@ -60,7 +60,7 @@ export function formatFit(fit: WeibullFit, unit?: string): string {
     '',
     ...table(rows),
     '',
-    `Bounds are each one-sided at ${lvl} (together a two-sided ${percent(2 * fit.bounds.level - 1)} interval).`,
+    `Bounds are each one-sided at ${lvl} (together a two-sided ${percent(2 * fit.bounds.level - 1)} interval): normal-approximation (Fisher information) bounds${lr ? ' and likelihood-ratio (LR) bounds' : ''}.`,
     `log-likelihood ${sig(fit.logLikelihood)}`,
   ];
   const g = fit.gof;

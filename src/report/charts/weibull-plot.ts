@@ -153,7 +153,7 @@ export function plotCaptionLine(fit: FitResult): string {
   const location = fit.location !== undefined ? `, γ = ${formatDuration(fit.location)}` : '';
   return (
     `β = ${formatRatio(fit.shape)}, η = ${formatDuration(fit.scale)}${location} (${METHOD_WORDS[fit.method]}); ` +
-    `bounds on F(t) one-sided ${levelText(fit.level)} each (Fisher matrix), together a two-sided ${levelText(2 * fit.level - 1)} band`
+    `normal-approximation (Fisher information) bounds on F(t), one-sided ${levelText(fit.level)} each: a two-sided ${levelText(2 * fit.level - 1)} band`
   );
 }
 
@@ -226,7 +226,7 @@ export function weibullPlot(fit: FitResult, opts: WeibullPlotOptions): FigurePar
     text(axes, margin.left - 5, y + 2.6, `${formatNumber(f * 100)}%`, FONT, { anchor: 'end' });
   }
   text(axes, margin.left + plotWidth / 2, bottom + 25, 'Life, years (logarithmic scale)', FONT, { fill: MUTED });
-  const yTitle = 'Unreliability F(t), on a ln(−ln(1 − F)) scale';
+  const yTitle = 'fraction failed, F(t) — on a ln(−ln(1 − F)) scale';
   text(axes, 0, 0, yTitle, FONT, { fill: MUTED }).attr('transform', `translate(9,${round(margin.top + plotHeight / 2)}) rotate(-90)`);
 
   // Bounds first, then the fitted line, then the points on top.

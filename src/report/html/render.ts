@@ -30,7 +30,8 @@ export function renderHtml(view: Appendix): string {
     "form-action 'none'",
   ].join('; ');
   const layout = env.compile(templateText('appendix.hbs'));
-  return layout({ view, css, script, csp, tocSections: view.toc.filter((t) => t.number) });
+  const lastFront = view.sections.some((s) => s.id === 'sec-key-findings') ? 'sec-key-findings' : 'sec-title-block';
+  return layout({ view, css, script, csp, lastFront, tocSections: view.toc.filter((t) => t.number) });
 }
 
 type Env = typeof Handlebars;
@@ -62,6 +63,7 @@ function runsHtml(runs: Run[], env: Env): string {
       if (r.code) h = `<code>${h}</code>`;
       if (r.em) h = `<em>${h}</em>`;
       if (r.strong) h = `<strong>${h}</strong>`;
+      if (r.link) h = `<a href="#${env.escapeExpression(r.link)}">${h}</a>`;
       return h;
     })
     .join('');

@@ -84,11 +84,13 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
   const date = studyDate(view.meta.date);
   const statusText = view.header.status.toUpperCase();
   const content: Content[] = [cover(view)];
+  // The contents follow the front matter: document control, then the key findings where present.
+  const lastFront = view.sections.some((s) => s.id === 'sec-key-findings') ? 'sec-key-findings' : 'sec-title-block';
   let landscapeOpen = false;
   for (const section of view.sections) {
     content.push(sectionContent(section, view, landscapeOpen));
     landscapeOpen = endsLandscape(section);
-    if (section.id === 'sec-title-block') content.push(contents());
+    if (section.id === lastFront) content.push(contents(lastFront === 'sec-key-findings'));
   }
   return {
     pageSize: pdfPageSize(view.paper),
@@ -165,8 +167,8 @@ const STYLES: TDocumentDefinitions['styles'] = {
   calloutText: { fontSize: 8.5, margin: [0, 0, 0, 3] },
   listingLabel: { fontSize: 8.5, bold: true, color: '#263a5a' },
   listingDetail: { fontSize: 7, color: MUTED },
-  listing: { fontSize: 7, lineHeight: 1.1, preserveLeadingSpaces: true },
-  lineNumber: { fontSize: 7, color: '#9aa3ad', alignment: 'right' },
+  listing: { fontSize: 6.5, lineHeight: 1.0, preserveLeadingSpaces: true },
+  lineNumber: { fontSize: 6.5, lineHeight: 1.0, color: '#9aa3ad', alignment: 'right' },
   codeBlock: { fontSize: 7.5, preserveLeadingSpaces: true, margin: [8, 2, 0, 6] },
   list: { margin: [0, 0, 0, 6] },
   quote: { margin: [12, 0, 0, 6], color: MUTED },
@@ -199,8 +201,8 @@ const LAYOUTS: Record<string, CustomTableLayout> = {
     vLineColor: () => RULE,
     paddingLeft: (i) => (i === 0 ? 4 : 6),
     paddingRight: () => 4,
-    paddingTop: () => 0.6,
-    paddingBottom: () => 0.6,
+    paddingTop: () => 0.2,
+    paddingBottom: () => 0.2,
   },
 };
 
@@ -210,6 +212,7 @@ function cover(view: Appendix): Content {
   return {
     stack: [
       { canvas: [{ type: 'rect', x: 0, y: 0, w: width, h: 4, color: ACCENT }] },
+      ...(c.logo ? [{ image: `data:${c.logo.media_type};base64,${c.logo.base64}`, fit: [160, 48], margin: [0, 14, 0, 0] } as Content] : []),
       { text: c.facility.toUpperCase(), style: 'coverFacility', margin: [0, 18, 0, 0] },
       { text: c.title, style: 'coverTitle' },
       { text: c.kind, style: 'coverKind' },
@@ -221,13 +224,23 @@ function cover(view: Appendix): Content {
         ],
         style: 'coverMeta',
       },
+      ...(c.client || c.consultant
+        ? [
+            {
+              text: [c.client ? `Client: ${c.client}` : '', c.client && c.consultant ? '     ' : '', c.consultant ? `Consultant: ${c.consultant}` : ''].join(''),
+              style: 'coverMeta',
+              margin: [0, 3, 0, 0],
+            } as Content,
+          ]
+        : []),
       { canvas: [{ type: 'line', x1: 0, y1: 10, x2: width, y2: 10, lineWidth: 0.5, lineColor: RULE }], margin: [0, 0, 0, 4] },
     ],
   };
 }
 
-function contents(): Content {
+function contents(newPage: boolean): Content {
   return {
+    ...(newPage ? { pageBreak: 'before' } : {}),
     toc: {
       title: { text: 'Contents', style: 'tocTitle' },
       numberStyle: { color: MUTED },
@@ -303,6 +316,7 @@ function blockContent(block: Block, section: Section, view: Appendix): Content {
 function runs(list: Run[]): Content[] {
   return list.map((r) => ({
     text: r.text,
+    ...(r.link ? { linkToDestination: r.link, color: ACCENT } : {}),
     ...(r.strong ? { bold: true } : {}),
     ...(r.em ? { italics: true } : {}),
     ...(r.code ? { style: 'id' } : {}),
@@ -450,8 +464,25 @@ function keyValueContent(block: KeyValueBlock): Content {
   } as Content;
 }
 
+/** Listings whose lines are this short (a few header lines aside, which wrap) are set in two columns: life-record CSVs. */
+const NARROW_LISTING = 56;
+
 function preContent(block: PreBlock): Content {
   const width = String(block.lines.length).length * 4.5 + 6;
+  const listing = (from: number, lines: string[]): Content => ({
+    table: {
+      widths: [width, '*'],
+      dontBreakRows: true,
+      body: lines.map((line, i) => [
+        { text: String(from + i + 1), style: 'lineNumber' },
+        // An empty string would collapse the row; a space keeps the blank line.
+        { text: line === '' ? ' ' : line, style: 'listing' },
+      ]),
+    },
+    layout: 'listing',
+  });
+  const narrow = block.lines.length > 24 && block.lines.filter((l) => l.length > NARROW_LISTING).length <= 3;
+  const half = Math.ceil(block.lines.length / 2);
   return {
     stack: [
       {
@@ -461,18 +492,9 @@ function preContent(block: PreBlock): Content {
         ],
         margin: [0, 8, 0, 3],
       },
-      {
-        table: {
-          widths: [width, '*'],
-          dontBreakRows: true,
-          body: block.lines.map((line, i) => [
-            { text: String(i + 1), style: 'lineNumber' },
-            // An empty string would collapse the row; a space keeps the blank line.
-            { text: line === '' ? ' ' : line, style: 'listing' },
-          ]),
-        },
-        layout: 'listing',
-      },
+      narrow
+        ? ({ columns: [listing(0, block.lines.slice(0, half)), listing(half, block.lines.slice(half))], columnGap: 8 } as Content)
+        : listing(0, block.lines),
     ],
   } as Content;
 }

@@ -17,5 +17,5 @@ export const annex: SectionRule = (_results, ctx) => {
       }),
     ),
   ];
-  return { id: 'sec-annex', number: ctx.number, title: 'Annex: study inputs', newPage: true, blocks };
+  return { id: 'sec-inputs', number: ctx.number, title: 'Annex: study inputs', blocks };
 };

@@ -8,19 +8,18 @@ export const assumptions: SectionRule = (results, ctx) => {
   const blocks: Block[] = [
     para(
       'Each assumption below is numbered as in the study. The events and parameters listed under it are those whose ',
-      'values would have to be revisited if the assumption were found not to hold.',
+      'values would have to be revisited if the assumption were found not to hold; an assumption without such a list ',
+      'bears on the model as a whole.',
     ),
   ];
   for (const a of results.assumptions) {
     blocks.push(subheading(anchor('assumption', a.id), `${a.id} ${a.title}`));
     if (a.body.trim()) blocks.push({ kind: 'markdown', source: a.body });
-    blocks.push({
-      kind: 'keyvalue',
-      items: [
-        { key: 'Events resting on it', value: a.events.length > 0 ? a.events.join(', ') : 'none listed', code: a.events.length > 0 },
-        { key: 'Parameters resting on it', value: a.parameters.length > 0 ? a.parameters.join(', ') : 'none listed', code: a.parameters.length > 0 },
-      ],
-    });
+    const items = [
+      ...(a.events.length > 0 ? [{ key: 'Events resting on it', value: a.events.join(', '), code: true }] : []),
+      ...(a.parameters.length > 0 ? [{ key: 'Parameters resting on it', value: a.parameters.join(', '), code: true }] : []),
+    ];
+    if (items.length > 0) blocks.push({ kind: 'keyvalue', items });
   }
   return { id: 'sec-assumptions', number: ctx.number, title: 'Assumptions register', blocks };
 };

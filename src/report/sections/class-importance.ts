@@ -1,9 +1,7 @@
 import type { ClassImportance, TopResult } from '../../analysis/results.js';
-import { barChart } from '../charts/bars.js';
 import { anchor, type SectionRule } from '../context.js';
-import { code, col, para, row, subheading, table } from '../blocks.js';
+import { code, col, para, row, subheading, table, xref } from '../blocks.js';
 import { formatCount, formatProbability, formatRatio, formatShare } from '../format.js';
-import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
 
 /**
@@ -15,23 +13,14 @@ export const classImportance: SectionRule = (results, ctx) => {
   if (tops.length === 0) return null;
   const blocks: Block[] = [
     para(
-      'A component class groups the basic events that share one set of data — the four hoist motors, for example. ',
-      'The measures below treat all the events of a class at once: P1 is the top-event probability with every event of ',
-      'the class failed, P0 with every one of them working, P the probability as studied. Fussell–Vesely (FV) = (P − P0)/P ',
-      'is the fraction of the top-event probability that would go if the class never failed; Birnbaum = P1 − P0; ',
-      'risk achievement worth RAW = P1/P; risk reduction worth RRW = P/P0 — the group form of the measures defined by ',
-      'Vesely et al., NUREG/CR-3385 (1983), computed exactly on the decision diagram. ',
-      'Because a class’s events share their data, a class’s FV is also the reach of a change to that data (a better ',
-      'brake type, a new motor specification): it moves every member at once. Class shares overlap where a cut set ',
-      'holds events of two classes, so they need not add up to 100%.',
+      'Each component class’s events taken together (all failed: P1; all working: P0), so a class’s FV is the reach of a ',
+      'change to the data its events share. ',
+      xref('methods', 'Method: {}.', 'method-class-importance'),
     ),
   ];
-  const width = Math.min(contentBox(ctx.paper).width, 480);
   for (const top of tops) {
     const ranked = top.class_importance;
     const lead = ranked[0]!;
-    const figure = ctx.nextFigure();
-    const caption = `Fussell–Vesely importance of the component classes for ${top.id}`;
     blocks.push(
       subheading(anchor('class-importance', top.id), `${top.id} — ${top.title}`),
       para(
@@ -45,18 +34,6 @@ export const classImportance: SectionRule = (results, ctx) => {
         formatProbability(lead.p_failed),
         `, ${formatRatio(lead.raw)} times the value as studied.`,
       ),
-      {
-        kind: 'figure',
-        id: anchor('fig-class-importance', top.id),
-        number: figure,
-        caption,
-        parts: [
-          barChart(
-            ranked.map((c) => ({ label: c.class, value: c.fussell_vesely, text: formatShare(c.fussell_vesely) })),
-            { width, caption: `${figure}. ${caption}`, axis: 'Fussell–Vesely importance of the class (share of the top-event probability)' },
-          ),
-        ],
-      },
       table({
         id: anchor('tab-class-importance', top.id),
         number: ctx.nextTable(),

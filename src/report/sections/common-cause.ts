@@ -1,6 +1,6 @@
 import type { CommonCauseResult } from '../../analysis/results.js';
 import { anchor, type BuildContext, type SectionRule } from '../context.js';
-import { callout, code, col, keyValues, para, row, subheading, table, type Part } from '../blocks.js';
+import { callout, code, col, keyValues, para, row, subheading, table, xref, type Part } from '../blocks.js';
 import { formatCount, formatNumber, formatProbability } from '../format.js';
 import type { Block } from '../view.js';
 
@@ -9,20 +9,6 @@ const METHOD_WORDS: Record<CommonCauseResult['method'], string> = {
   mgl: 'multiple Greek letter',
   alpha: 'alpha factor',
 };
-
-/** The formulas of each method, as applied (NUREG/CR-5485; see src/analysis/common-cause.ts). */
-function formula(g: CommonCauseResult): string {
-  switch (g.method) {
-    case 'beta':
-      return 'Q_1 = (1 − β)·Q_t for each member’s independent failure; Q_m = β·Q_t for the one event failing all m members; no events of intermediate size.';
-    case 'mgl':
-      return 'Q_k = (ρ_1·…·ρ_k)(1 − ρ_{k+1}) / C(m−1, k−1) · Q_t with ρ_1 = 1, ρ_2 = β, ρ_3 = γ, ρ_4 = δ and ρ_{m+1} = 0, for each event failing a given k of the m members.';
-    case 'alpha':
-      return g.testing === 'staggered'
-        ? 'Staggered testing: Q_k = α_k / C(m−1, k−1) · Q_t for each event failing a given k of the m members.'
-        : 'Non-staggered testing: Q_k = k / C(m−1, k−1) · (α_k / α_t) · Q_t with α_t = Σ k·α_k, for each event failing a given k of the m members.';
-  }
-}
 
 /**
  * The common-cause groups: method, parameters with their sources, the members before and after the
@@ -33,18 +19,15 @@ export const commonCause: SectionRule = (results, ctx) => {
   if (groups.length === 0) return null;
   const blocks: Block[] = [
     para(
-      'Like components can fail together from one cause — a design or manufacturing defect, a shared environment, one ',
-      'maintenance error repeated — which independence would miss. Each group below is expanded by the parametric models of ',
-      'NUREG/CR-5485 (US NRC 1998, ',
+      'Each group is expanded by the parametric models of NUREG/CR-5485 (US NRC 1998, ',
       { text: 'Guidelines on Modeling Common-Cause Failures in Probabilistic Risk Assessment', em: true },
-      '): a member’s basic event keeps its id but now stands for its independent failure only, and one shared event is ',
-      'added for each set of members that a single cause can fail together. Wherever the logic uses a member it reads ',
-      '“the member’s independent failure OR any shared event that includes it”, so every top event, cut set, importance ',
-      'measure, count and event-tree sequence of this appendix includes the groups.',
+      '). A member’s id stands for its independent part; its total is its own model probability; the shared part is the ',
+      'sum of the shared events that include it. Every result of this appendix includes the groups. ',
+      xref('methods', 'Method and formulas: {}.', 'method-ccf'),
     ),
   ];
   for (const g of groups) blocks.push(...groupBlocks(g, ctx));
-  return { id: 'sec-common-cause', number: ctx.number, title: 'Common-cause failures', newPage: true, blocks };
+  return { id: 'sec-common-cause', number: ctx.number, title: 'Common-cause failures', blocks };
 };
 
 function groupBlocks(g: CommonCauseResult, ctx: BuildContext): Block[] {
@@ -59,12 +42,12 @@ function groupBlocks(g: CommonCauseResult, ctx: BuildContext): Block[] {
         key: 'Parameters',
         value: g.parameters.map((p) => `${p.field} = ${formatNumber(p.value)}`).join(', ') + (sources.length ? ` (source: ${[...new Set(sources)].join(', ')})` : ' (no source cited)'),
       },
-      { key: 'Formulas', value: formula(g) },
       { key: 'Shared events made', value: `${formatCount(g.shared.length)} (subsets of two or more of the ${formatCount(m)} members${g.method === 'beta' ? '; the beta factor gives only the all-member event' : ''})` },
     ]),
   ];
   // First-order total of each member after the expansion: its independent part plus every shared event that contains it.
-  const after = g.members.map((mem) => mem.independent + g.shared.filter((s) => s.members.includes(mem.id)).reduce((a, s) => a + s.probability, 0));
+  const shared = g.members.map((mem) => g.shared.filter((s) => s.members.includes(mem.id)).reduce((a, s) => a + s.probability, 0));
+  const after = g.members.map((mem, i) => mem.independent + shared[i]!);
   blocks.push(
     table({
       id: anchor('tab-ccf-members', g.id),
@@ -72,11 +55,12 @@ function groupBlocks(g: CommonCauseResult, ctx: BuildContext): Block[] {
       caption: `Members of ${g.id} before and after the expansion`,
       columns: [
         col('Member', 'left', { code: true, width: 'auto' }),
-        col('Own probability Q_t', 'right', { width: 'auto' }),
+        col('Total Q_t (own model)', 'right', { width: 'auto' }),
         col('Independent part (the member’s id)', 'right', { width: 'auto' }),
+        col('Shared part (shared events with it)', 'right', { width: 'auto' }),
         col('Independent + shared (first order)', 'right', { width: 'auto' }),
       ],
-      rows: g.members.map((mem, i) => row([mem.id, formatProbability(mem.total), formatProbability(mem.independent), formatProbability(after[i])])),
+      rows: g.members.map((mem, i) => row([mem.id, formatProbability(mem.total), formatProbability(mem.independent), formatProbability(shared[i]), formatProbability(after[i])])),
       note: `Shared events use Q_t = ${formatProbability(g.reference_total)}, the mean of the members’ own probabilities.`,
     }),
     table({

@@ -1,11 +1,11 @@
 import type { TopResult } from '../../analysis/results.js';
 import { anchor, type SectionRule } from '../context.js';
-import { col, para, row, subheading, table } from '../blocks.js';
+import { code, col, para, row, subheading, table, xref } from '../blocks.js';
 import { formatCount, formatProbability, formatShare } from '../format.js';
 import type { Block } from '../view.js';
 
 /** How many cut sets the appendix lists per top event; the rest are in the CSV output. */
-export const CUT_SETS_SHOWN = 50;
+export const CUT_SETS_SHOWN = 25;
 
 /** The most probable minimal cut sets of each top event, with what was left out and why. */
 export const cutSets: SectionRule = (results, ctx) => {
@@ -13,14 +13,16 @@ export const cutSets: SectionRule = (results, ctx) => {
   if (tops.length === 0) return null;
   const blocks: Block[] = [
     para(
-      'A minimal cut set is a smallest combination of basic events whose joint occurrence causes the top event. ',
-      'Share is the cut set’s probability as a fraction of the exact top-event probability; shares can add up to more than ',
-      '100% because cut sets overlap. Each table is printed in order of decreasing probability; in the HTML version a ',
-      'click on a column heading re-sorts it (with scripts enabled).',
+      'The most probable minimal cut sets of each top event, in order of decreasing probability; the share is of the exact ',
+      'top-event probability, and shares overlap. ',
+      ...(results.common_cause?.length
+        ? ['A common-cause member’s id stands for its independent part; a shared event (',  code(results.common_cause[0]!.shared[0]?.id ?? `${results.common_cause[0]!.id}/ccf-…`), ') is one cause failing the members it names. ']
+        : []),
+      xref('methods', 'Method: {}.', 'method-cut-sets'),
     ),
   ];
   for (const top of tops) blocks.push(...topBlocks(top, ctx.nextTable));
-  return { id: 'sec-cut-sets', number: ctx.number, title: 'Minimal cut sets', newPage: true, blocks };
+  return { id: 'sec-cut-sets', number: ctx.number, title: 'Minimal cut sets', blocks };
 };
 
 function topBlocks(top: TopResult, nextTable: () => string): Block[] {
@@ -40,7 +42,7 @@ function topBlocks(top: TopResult, nextTable: () => string): Block[] {
     s.truncated > 0
       ? `${formatCount(s.truncated)} ${s.truncated === 1 ? 'cut set was' : 'cut sets were'} dropped by the cutoff or the order limit` +
         (s.truncated_probability !== undefined ? `, with a total probability of ${formatProbability(s.truncated_probability)}.` : '.')
-      : 'None was dropped by the cutoff or the order limit.',
+      : `None of the cut sets of ${top.id} was dropped by the cutoff or the order limit.`,
   ];
   if (s.capped) {
     // The cap (settings.max_cut_sets) keeps memory bounded; the rest are counted and summed, or bounded.

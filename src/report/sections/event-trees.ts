@@ -1,10 +1,11 @@
-import type { EventTreeResult, FailureModeResult } from '../../analysis/results.js';
+import type { EventTreeResult, FailureModeResult, Results } from '../../analysis/results.js';
 import { eventTreeDiagram } from '../charts/event-tree.js';
 import { anchor, type BuildContext, type SectionRule } from '../context.js';
-import { callout, code, col, para, row, strong, subheading, table, type Part } from '../blocks.js';
+import { callout, code, col, para, row, strong, subheading, table, xref, type Part } from '../blocks.js';
 import { formatProbability, formatRatio } from '../format.js';
 import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
+import { quantityUncertaintyTable, uncertaintiesOf } from './quantity-uncertainty.js';
 
 /**
  * The load-range event trees: the load, the headings, the diagram, every sequence and outcome per
@@ -16,19 +17,13 @@ export const eventTrees: SectionRule = (results, ctx) => {
   if (trees.length === 0) return null;
   const blocks: Block[] = [
     para(
-      'An event tree follows an initiating load — here a flood, split into ranges of annual exceedance probability (AEP) — ',
-      'through the questions that decide what happens (its headings) to an outcome. Each path is a sequence. A heading’s ',
-      'failure branch is a fixed or per-range probability, or a condition on the fault trees of this appendix: a gate or ',
-      'top event, or “at least k of the counted gates fail” with k set by what each range of flood needs. ',
-      'Every sequence, range by range, is quantified as one Boolean expression — the AND of the conditions on its failure ',
-      'branches and the negations of those on its success branches — on the same decision diagram as the fault trees. A ',
-      'basic event that several headings share is then conditioned correctly, which a product of branch numbers cannot ',
-      'do; the tables show both. Probability headings are independent of every basic event and enter as factors. ',
-      'A range’s annual probability is the difference of the AEPs that bound it, so the outcomes are annual probabilities.',
+      'Each sequence, range by range, is quantified exactly on the fault trees’ decision diagram and set beside the product ',
+      'of branch numbers a spreadsheet would use; outcomes are annual probabilities. Loads outside the ranges are not counted. ',
+      xref('methods', 'Method: {}.', 'method-event-trees'),
     ),
   ];
-  for (const t of trees) blocks.push(...treeBlocks(t, results.failure_modes ?? [], ctx));
-  return { id: 'sec-event-trees', number: ctx.number, title: 'Event trees', newPage: true, blocks };
+  for (const t of trees) blocks.push(...treeBlocks(t, results, ctx));
+  return { id: 'sec-event-trees', number: ctx.number, title: 'Event trees', blocks };
 };
 
 function aepText(r: EventTreeResult['load']['ranges'][number]): string {
@@ -40,7 +35,8 @@ function pathText(t: EventTreeResult, path: ('works' | 'fails' | null)[]): strin
   return path.map((s, h) => (s ? `${t.headings[h]!.id} ${s}` : null)).filter(Boolean).join(' · ');
 }
 
-function treeBlocks(t: EventTreeResult, modes: FailureModeResult[], ctx: BuildContext): Block[] {
+function treeBlocks(t: EventTreeResult, results: Results, ctx: BuildContext): Block[] {
+  const modes = results.failure_modes ?? [];
   const ranges = t.load.ranges;
   const perYear = t.load.basis === 'aep' ? 'annual probability' : 'per year';
   const blocks: Block[] = [subheading(anchor('tree', t.id), `${t.id} — ${t.title}`)];
@@ -123,8 +119,22 @@ function treeBlocks(t: EventTreeResult, modes: FailureModeResult[], ctx: BuildCo
       note: `The outcomes add up to ${formatProbability(t.check.sum_of_outcomes)}, the total of the load ranges ${formatProbability(t.check.initiating)}: the sequences cover every combination of branches once.`,
     }),
   );
+  blocks.push(
+    ...quantityUncertaintyTable(uncertaintiesOf(results, 'event-tree-outcome', t.id), {
+      id: anchor('tab-tree-outcome-uncertainty', t.id),
+      number: ctx.nextTable,
+      caption: `Uncertainty of the outcomes of ${t.id} (${perYear})`,
+      label: 'Outcome',
+    }),
+    ...quantityUncertaintyTable(uncertaintiesOf(results, 'event-tree-sequence', t.id), {
+      id: anchor('tab-tree-sequence-uncertainty', t.id),
+      number: ctx.nextTable,
+      caption: `Uncertainty of the sequences of ${t.id} (${perYear})`,
+      label: 'Sequence',
+    }),
+  );
   blocks.push(callout('caution', `Exact against a product of branch numbers: ${t.id}`, treeClosing(t)));
-  for (const f of modes.filter((x) => x.tree === t.id)) blocks.push(...modeBlocks(f, ctx));
+  for (const f of modes.filter((x) => x.tree === t.id)) blocks.push(...modeBlocks(f, results, ctx));
   return blocks;
 }
 
@@ -145,7 +155,8 @@ function treeClosing(t: EventTreeResult): Part[] {
     parts.push('. ');
   }
   const far = [...t.sequences].filter((s) => s.probability > 0 && s.product_of_branches > 0).sort((a, b) => Math.abs(Math.log(b.probability / b.product_of_branches)) - Math.abs(Math.log(a.probability / a.product_of_branches)))[0];
-  if (far) {
+  // Name the sequence only when the two figures differ as printed: "X exactly against X" says nothing.
+  if (far && formatProbability(far.probability) !== formatProbability(far.product_of_branches)) {
     parts.push(
       'The largest difference is in sequence ',
       strong(far.id),
@@ -155,22 +166,15 @@ function treeClosing(t: EventTreeResult): Part[] {
   return parts;
 }
 
-function modeBlocks(f: FailureModeResult, ctx: BuildContext): Block[] {
+function modeBlocks(f: FailureModeResult, results: Results, ctx: BuildContext): Block[] {
   const ranges = f.ranges;
   return [
     subheading(anchor('modes', f.id), `${f.id} — ${f.title}`),
     para(
-      'The dam’s failure modes below share one load, the flood of ',
+      'These failure modes share the load of ',
       code(f.tree),
-      '. Following the practice discussed by R. Hill, D. Bowles, P. Jordan and R. Nathan, “Estimating overall risk of dam ',
-      'failure: practical considerations in combining failure probabilities” (ANCOLD 2003; cited from memory), they are ',
-      'combined within each load range, where every probability is conditional on the same flood, and only then weighted by ',
-      'the ranges’ annual probabilities. Shown: the plain sum (exact only if the modes exclude one another); the uni-modal ',
-      'bounds max P_i ≤ P ≤ 1 − Π(1 − P_i), the upper bound holding for modes that are independent or positively ',
-      'dependent given the load; and the common-cause adjustment, which takes the modes as independent given the load and ',
-      'shares each combination of modes occurring together equally among them, so that the adjusted modes add up to the ',
-      'upper bound: for two modes P_A·(1 − P_B/2). Not applied: any ordering of modes by which would occur first, and ',
-      'dependence between modes beyond the shared load.',
+      ': they are combined within each load range and then weighted by the ranges’ annual probabilities. ',
+      xref('methods', 'Method: {}.', 'method-failure-modes'),
     ),
     table({
       id: anchor('tab-modes', f.id),
@@ -195,6 +199,15 @@ function modeBlocks(f: FailureModeResult, ctx: BuildContext): Block[] {
       strong('Overall annual probability of failure: '),
       `between ${formatProbability(f.annual.lower)} and ${formatProbability(f.annual.upper)} (uni-modal bounds), `,
       `against ${formatProbability(f.annual.sum)} for the plain sum.`,
+    ),
+    ...quantityUncertaintyTable(
+      [...uncertaintiesOf(results, 'failure-mode', f.id), ...uncertaintiesOf(results, 'failure-modes-combined', f.id)],
+      {
+        id: anchor('tab-modes-uncertainty', f.id),
+        number: ctx.nextTable,
+        caption: `Uncertainty of the failure modes of ${f.id}, per year (modes adjusted; combined: sum and uni-modal bounds)`,
+        label: 'Mode',
+      },
     ),
   ];
 }

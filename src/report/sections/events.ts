@@ -1,7 +1,7 @@
-import type { EventResult } from '../../analysis/results.js';
-import { col, para, row, table } from '../blocks.js';
+import type { EventResult, ParameterResult } from '../../analysis/results.js';
+import { col, para, row, table, xref } from '../blocks.js';
 import type { BuildContext, SectionRule } from '../context.js';
-import { formatAge, formatDuration, formatProbability, formatQuantity } from '../format.js';
+import { formatAge, formatAsWritten, formatCount, formatProbability, formatQuantity } from '../format.js';
 
 /** Beside a probability whose age lies beyond the data of its fit (results `extrapolated`). */
 const EXTRAPOLATED_MARK = '†';
@@ -30,8 +30,8 @@ export const events: SectionRule = (results, ctx) => {
         MODEL_WORDS[e.model] ?? e.model,
         parameterText(e, ctx),
         e.age_years !== undefined ? formatAge(e.age_years) : '—',
-        intervalText(e),
-        e.model === 'switch' ? (e.on ? 'on (1)' : 'off (0)') : `${formatProbability(e.probability)}${e.extrapolated ? ` ${EXTRAPOLATED_MARK}` : ''}`,
+        intervalText(e, ctx),
+        `${probabilityText(e)}${e.extrapolated ? ` ${EXTRAPOLATED_MARK}` : ''}`,
         sourceText(e, ctx),
       ],
       {
@@ -50,12 +50,14 @@ export const events: SectionRule = (results, ctx) => {
     id: 'sec-events',
     number: ctx.number,
     title: 'Basic events',
-    newPage: true,
+
     blocks: [
       para(
-        `The ${results.events.length} basic events of the model. Ages are taken at the snapshot date ${results.study.as_of}, `,
-        'from the last renewal where one is recorded, else from installation. The exercise or test interval is the time a ',
-        'standby component may sit failed before a run or test would reveal it. Units: durations as shown, rates per year.',
+        `The ${formatCount(results.events.length)} basic ${results.events.length === 1 ? 'event' : 'events'} of the model, each number as written in the study. `,
+        `Ages are taken at the snapshot date ${results.study.as_of}, from the last renewal where one is recorded, else from installation. `,
+        ...(results.events.some((e) => e.common_cause_group)
+          ? ['A common-cause member’s probability is its independent part; its total and the shared events are in the common-cause section', xref('common-cause', ' ({})'), '. ']
+          : []),
       ),
       table({
         id: 'tab-events',
@@ -73,7 +75,17 @@ export const events: SectionRule = (results, ctx) => {
         ],
         rows,
         sortable: true,
-        note: `Flagged rows use at least one number that cites no source (named after "unsourced:"); see the parameter provenance register.${markNote}`,
+        // Each footnote only when there is a row it speaks of.
+        ...(rows.some((r) => r.flag) || markNote
+          ? {
+              note: [
+                rows.some((r) => r.flag) ? 'Flagged rows use at least one number that cites no source (named after "unsourced:"); see the parameter provenance register.' : '',
+                markNote.trim(),
+              ]
+                .filter(Boolean)
+                .join(' '),
+            }
+          : {}),
       }),
     ],
   };
@@ -85,10 +97,11 @@ function parameterText(e: EventResult, ctx: BuildContext): string {
     if (INTERVAL_FIELDS.includes(field)) continue;
     const key = e.parameter_keys[field];
     const quantity = key ? ctx.parametersByKey.get(key)?.quantity ?? guessQuantity(field) : guessQuantity(field);
-    parts.push(`${field} ${formatQuantity(quantity, value)}`);
+    parts.push(`${field} ${key ? writtenValue(ctx.parametersByKey.get(key), quantity, value) : formatQuantity(quantity, value)}`);
   }
   if (e.model === 'switch') parts.push(`state ${e.on ? 'on' : 'off'} in the base case`);
-  if (e.common_cause_group) parts.push(`common-cause group ${e.common_cause_group}`);
+  if (e.common_cause_group && e.common_cause_role !== 'shared') parts.push(`common-cause group ${e.common_cause_group}: total ${formatProbability(e.total_probability)}`);
+  if (e.common_cause_group && e.common_cause_role === 'shared') parts.push(`shared part of common-cause group ${e.common_cause_group}`);
   return parts.join('; ') || '—';
 }
 
@@ -105,9 +118,29 @@ function intervalYears(e: EventResult): number | undefined {
   return undefined;
 }
 
-function intervalText(e: EventResult): string {
-  const years = intervalYears(e);
-  return years === undefined ? '—' : formatDuration(years);
+function intervalText(e: EventResult, ctx: BuildContext): string {
+  for (const f of INTERVAL_FIELDS) {
+    const value = e.parameters[f];
+    if (value === undefined) continue;
+    const key = e.parameter_keys[f];
+    return writtenValue(key ? ctx.parametersByKey.get(key) : undefined, 'duration', value);
+  }
+  return '—';
+}
+
+/** The value as the study wrote it when it is the parameter's own value, else in the written unit. */
+function writtenValue(p: ParameterResult | undefined, quantity: string, value: number): string {
+  if (p && p.value === value) return p.written;
+  return formatAsWritten(quantity, value, p?.written);
+}
+
+/** A common-cause member shows its independent part and says so; a shared event says it is one. */
+function probabilityText(e: EventResult): string {
+  if (e.model === 'switch') return e.on ? 'on (1)' : 'off (0)';
+  const p = formatProbability(e.probability);
+  if (e.common_cause_role === 'shared') return `${p} shared part`;
+  if (e.common_cause_group) return `${p} independent part`;
+  return p;
 }
 
 /** The distinct sources behind an event's numbers, in field order. */

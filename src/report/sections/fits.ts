@@ -1,5 +1,5 @@
 import type { FitBound, FitResult, Results } from '../../analysis/results.js';
-import { callout, code, col, keyValues, listWords, para, row, strong, subheading, table } from '../blocks.js';
+import { callout, code, col, keyValues, listWords, para, row, strong, subheading, table, xref } from '../blocks.js';
 import { METHOD_WORDS, levelText, weibullPlot } from '../charts/weibull-plot.js';
 import { anchor, type BuildContext, type SectionRule } from '../context.js';
 import { formatCount, formatDuration, formatRatio } from '../format.js';
@@ -7,7 +7,7 @@ import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
 
 /** Widest plot: legible on A4 and on letter, both of which have about 500 pt of text width. */
-const PLOT_WIDTH = 460;
+const PLOT_WIDTH = 380;
 
 const METHOD_DETAIL: Record<FitResult['method'], string> = {
   mle: 'maximum likelihood, each suspension counted as a life known only to exceed its age (right-censored)',
@@ -24,34 +24,26 @@ export const fits: SectionRule = (results, ctx) => {
   if (list.length === 0) return null;
   const blocks: Block[] = [
     para(
-      `Some parameters of this study come from field life records: ${list.length === 1 ? 'one data set, fitted' : `${formatCount(list.length)} data sets, each fitted`} `,
-      'with a Weibull distribution. A record is a failure (the unit failed in the mode studied) or a suspension (still in ',
-      'service, or removed for another reason): a suspension says only that the life was longer than its age, and the fit ',
-      'uses it as such.',
-    ),
-    para(
-      strong('Reading the plots: '),
-      'on this Weibull paper a Weibull distribution is a straight line, so each circle is one failure at its median rank, ',
-      'the solid line is the fit (its slope is the shape β and it crosses the darker 63.2% line at the scale η), the two ',
-      'dashed lines bound F(t) at the stated level, and circles that bend away from the line in a pattern rather than ',
-      'scatter about it mean one Weibull does not describe the records well.',
+      `${list.length === 1 ? 'One data set of field life records, fitted' : `${formatCount(list.length)} data sets of field life records, each fitted`} with a Weibull distribution; suspensions count as lives known only to exceed their age. `,
       ...(list.some((f) => f.location !== undefined)
-        ? [' A three-parameter fit (with a failure-free life γ) is drawn against the lives as recorded, so its line curves down towards γ at short lives.']
+        ? ['A three-parameter fit (with a failure-free life γ) is drawn against the lives as recorded, so its line curves down towards γ at short lives. ']
         : []),
+      xref('methods', 'Method and how to read the plots: {}.', 'method-fits'),
     ),
   ];
-  for (const fit of list) blocks.push(...fitBlocks(fit, results, ctx));
-  return { id: 'sec-fits', number: ctx.number, title: 'Life-data fits', newPage: true, blocks };
+  // Each fitting method is described in full at its first fit only.
+  list.forEach((fit, i) => blocks.push(...fitBlocks(fit, results, ctx, list.findIndex((f) => f.method === fit.method) === i)));
+  return { id: 'sec-fits', number: ctx.number, title: 'Life-data fits', blocks };
 };
 
-function fitBlocks(fit: FitResult, results: Results, ctx: BuildContext): Block[] {
+function fitBlocks(fit: FitResult, results: Results, ctx: BuildContext, explainMethod: boolean): Block[] {
   const blocks: Block[] = [subheading(anchor('fit', fit.id), `${fit.id} — ${fit.data}${fit.group ? `, group ${fit.group}` : ''}`)];
   blocks.push(keyValues(summaryItems(fit, results)));
   blocks.push(
     table({
       id: anchor('tab-fit', fit.id),
       number: ctx.nextTable(),
-      caption: `Weibull fit of ${fit.id} by ${METHOD_WORDS[fit.method]}: estimates and one-sided ${levelText(fit.level)} bounds (Fisher matrix)`,
+      caption: `Weibull fit of ${fit.id} by ${METHOD_WORDS[fit.method]}: estimates and one-sided ${levelText(fit.level)} normal-approximation (Fisher information) bounds`,
       columns: [
         col('Quantity', 'left', { width: 3 }),
         col('Estimate', 'right', { width: 'auto' }),
@@ -69,7 +61,8 @@ function fitBlocks(fit: FitResult, results: Results, ctx: BuildContext): Block[]
         'Numbers are rounded here; the parameter register gives the values the quantification uses.',
     }),
   );
-  blocks.push(para(strong('Method: '), `${METHOD_DETAIL[fit.method]}.`));
+  if (explainMethod) blocks.push(para(strong('Method: '), `${METHOD_DETAIL[fit.method]}.`));
+  else blocks.push(para(strong('Method: '), `${METHOD_WORDS[fit.method]}, as above.`));
   blocks.push(para(strong('Goodness of fit: '), goodnessVerdict(fit)));
   blocks.push(para(strong('Provenance: '), fit.provenance, '.'));
   blocks.push(usedByPara(fit, ctx));
@@ -136,7 +129,8 @@ export function goodnessVerdict(fit: FitResult): string {
       ? `${head}The statistic exceeds the critical value, so the Weibull law is rejected at the 5% level for these records and the fitted numbers should not be used without a closer look at the data.`
       : `${head}The statistic is below the critical value, so the records give no reason at the 5% level to reject the Weibull law.`;
   }
-  return `${statistic}${plot}. No published critical value applies to records like these (with suspensions, a location or rank estimates), so the statistic gives no verdict and serves to compare fits of the same records; judge the fit from the plot.`;
+  // One sentence with this fit's numbers in it, so two fits never repeat each other word for word.
+  return `${statistic}${plot}: no published critical value applies to records with suspensions, a location or rank estimates, so the statistic gives no verdict and serves to compare fits of the same records; judge the fit from the plot.`;
 }
 
 function usedByPara(fit: FitResult, ctx: BuildContext): Block {

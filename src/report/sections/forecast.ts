@@ -2,7 +2,7 @@ import type { ForecastResult } from '../../analysis/results.js';
 import { linearAxis, withTicks } from '../charts/axes.js';
 import { lineChart } from '../charts/line-chart.js';
 import { anchor, type SectionRule } from '../context.js';
-import { code, col, para, row, subheading, table, type Part } from '../blocks.js';
+import { code, col, counted, para, row, subheading, table, xref, type Part } from '../blocks.js';
 import { formatCount, formatProbability } from '../format.js';
 import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
@@ -21,14 +21,9 @@ export const forecast: SectionRule = (results, ctx) => {
   const scenarios = list.filter((f) => f.scenario !== undefined);
   const blocks: Block[] = [
     para(
-      `The top-event probabilities for each year from the snapshot date, ${results.study.as_of}, to ${last.date} `,
-      `(${formatCount(last.year)} years on), as the Weibull (ageing) components grow a year older each year. The other `,
-      'models keep their values: their data say nothing of age. ',
-      scenarios.length > 0
-        ? 'Each scenario that plans a renewal is shown beside the base case: the renewed component’s age restarts on the renewal date, and the scenario’s other changes apply throughout. '
-        : 'No scenario of the study plans a renewal, so only the base case is shown. ',
-      'The curves are the ageing trend a rehabilitation study weighs against the cost of renewal; they assume the data, ',
-      'exercise and maintenance stay as they are now.',
+      `The top-event probabilities year by year from ${results.study.as_of} to ${last.date} (${counted(last.year, 'year')} on) as the ageing components grow older`,
+      scenarios.length > 0 ? ', beside each scenario that plans a renewal. ' : '; no scenario plans a renewal. ',
+      xref('methods', 'Method: {}.', 'method-forecast'),
     ),
   ];
   const width = Math.min(contentBox(ctx.paper).width, 480);
@@ -71,7 +66,7 @@ export const forecast: SectionRule = (results, ctx) => {
       parts: [
         lineChart(
           series.map((f) => ({ name: f.scenario === undefined ? 'base case' : `${f.scenario} — ${f.title ?? ''}`, points: f.years.map((yr) => ({ x: yr.year, y: yr.tops[top.id]! })) })),
-          { width, label: `${figure}. ${caption}`, x, y, legend: true },
+          { width, label: `${figure}. ${caption}`, x, y, legend: true, frameHeight: 130 },
         ),
       ],
     });
@@ -79,13 +74,17 @@ export const forecast: SectionRule = (results, ctx) => {
       table({
         id: anchor('tab-forecast', top.id),
         number: ctx.nextTable(),
-        caption: `Forecast probability of ${top.id} by year`,
+        caption: step > 1 ? `Forecast probability of ${top.id}, every ${counted(step, 'year')} and the last` : `Forecast probability of ${top.id} by year`,
         columns: [col('Year', 'right', { width: 'auto' }), col('Date', 'left', { width: 'auto' }), ...series.map((f) => col(name(f), 'right', { width: 'auto' as const }))],
-        rows: base.years.map((yr, k) => row([formatCount(yr.year), yr.date, ...series.map((f) => formatProbability(at(f, k)))])),
+        rows: base.years
+          .map((yr, k) => ({ yr, k }))
+          .filter(({ yr, k }) => yr.year % step === 0 || k === base.years.length - 1)
+          .map(({ yr, k }) => row([formatCount(yr.year), yr.date, ...series.map((f) => formatProbability(at(f, k)))])),
+        ...(step > 1 ? { note: 'Every year is in results.json (forecast).' } : {}),
       }),
     );
   }
-  return { id: 'sec-forecast', number: ctx.number, title: 'Forecast', newPage: true, blocks };
+  return { id: 'sec-forecast', number: ctx.number, title: 'Forecast', blocks };
 };
 
 

@@ -2,10 +2,11 @@ import type { GateCountResult } from '../../analysis/results.js';
 import { linearAxis, logAxis, withTicks } from '../charts/axes.js';
 import { lineChart } from '../charts/line-chart.js';
 import { anchor, type BuildContext, type SectionRule } from '../context.js';
-import { callout, col, para, row, strong, subheading, table, type Part } from '../blocks.js';
+import { callout, col, para, row, strong, subheading, table, xref, type Part } from '../blocks.js';
 import { formatCount, formatNumber, formatProbability, formatRatio } from '../format.js';
 import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
+import { quantityUncertaintyTable, uncertaintiesOf } from './quantity-uncertainty.js';
 
 /**
  * How many of a set of gates fail: the exact distribution beside the one that treats the gates as
@@ -16,16 +17,24 @@ export const gateCounts: SectionRule = (results, ctx) => {
   if (counts.length === 0) return null;
   const blocks: Block[] = [
     para(
-      'A flood rarely asks whether one gate opens; it asks how many do. The distribution below, P(exactly j of the n gates ',
-      'fail to open), is computed exactly on one binary decision diagram of all n gates together, so a cause the gates ',
-      'share — station power, the controller, the operator, a common-cause failure of like machinery — is counted once. ',
-      'Beside it is the answer a calculation gets by treating the gates as independent, each with its own exact ',
-      'probability: the binomial distribution when those probabilities are equal, the Poisson-binomial (the sum of ',
-      'independent trials of unequal probability) when they differ. The gap between the two columns is what sharing costs.',
+      'How many of a set fail, computed exactly with every shared cause counted once, beside the answer for independent ',
+      'items with the same probabilities; the gap is what sharing costs. ',
+      xref('methods', 'Method: {}.', 'method-counts'),
     ),
   ];
-  for (const c of counts) blocks.push(...countBlocks(c, ctx));
-  return { id: 'sec-gate-counts', number: ctx.number, title: 'How many gates fail', newPage: true, blocks };
+  for (const c of counts) {
+    blocks.push(...countBlocks(c, ctx));
+    blocks.push(
+      ...quantityUncertaintyTable(uncertaintiesOf(results, 'gate-count', c.id), {
+        id: anchor('tab-count-uncertainty', c.id),
+        number: ctx.nextTable,
+        caption: `Uncertainty of P(at least j of ${formatCount(c.of.length)} fail) for ${c.id}`,
+        label: 'Count',
+        name: (q) => q.id.replace(/^at-least-/, 'at least '),
+      }),
+    );
+  }
+  return { id: 'sec-gate-counts', number: ctx.number, title: 'How many gates fail', blocks };
 };
 
 function countBlocks(c: GateCountResult, ctx: BuildContext): Block[] {
@@ -85,7 +94,7 @@ function countBlocks(c: GateCountResult, ctx: BuildContext): Block[] {
           { name: 'exact (shared causes counted once)', points: c.exact.map((v, j) => ({ x: j, y: v })), markers: true },
           { name: `independent gates (${method})`, points: c.independent.map((v, j) => ({ x: j, y: v })), markers: true },
         ],
-        { width, label: `${figure}. ${caption}`, x, y, legend: true },
+        { width, label: `${figure}. ${caption}`, x, y, legend: true, frameHeight: 130 },
       ),
     ],
     note: 'Points of probability zero are not plotted on the logarithmic scale.',
@@ -114,7 +123,8 @@ function closing(c: GateCountResult): Part[] {
       '. ',
     );
   };
-  if (n >= 2) all(`At least 2 of ${formatCount(n)} fail`, 2);
+  // With two, "at least 2" and "all" are one figure: say it once.
+  if (n > 2) all(`At least 2 of ${formatCount(n)} fail`, 2);
   all(`All ${formatCount(n)} fail`, n);
   // The j where the two differ most (ratio of tail probabilities), if it is neither of the above.
   let worst = 1;

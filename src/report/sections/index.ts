@@ -13,6 +13,8 @@ import { forecast } from './forecast.js';
 import { fits } from './fits.js';
 import { gateCounts } from './gate-counts.js';
 import { importance } from './importance.js';
+import { keyFindings } from './key-findings.js';
+import { methods } from './methods.js';
 import { manifest } from './manifest.js';
 import { provenance } from './provenance.js';
 import { resultsSection } from './results.js';
@@ -33,10 +35,13 @@ export interface SectionSlot {
   name: string;
   rule?: SectionRule;
   numbered?: boolean;
+  /** Built after every other section (it points at them); placed where it stands in the list. */
+  late?: boolean;
 }
 
 export const SECTIONS: readonly SectionSlot[] = [
   { name: 'title-block', rule: titleBlock, numbered: false },
+  { name: 'key-findings', rule: keyFindings, numbered: false, late: true },
   { name: 'scope', rule: scope },
   { name: 'cautions', rule: cautions },
   { name: 'description', rule: description },
@@ -57,5 +62,6 @@ export const SECTIONS: readonly SectionSlot[] = [
   { name: 'event-trees', rule: eventTrees },
   { name: 'fits', rule: fits },
   { name: 'manifest', rule: manifest },
-  { name: 'annex', rule: annex },
+  { name: 'methods', rule: methods },
+  { name: 'inputs', rule: annex },
 ];

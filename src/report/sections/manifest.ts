@@ -46,5 +46,5 @@ export const manifest: SectionRule = (results, ctx) => {
       ),
     }),
   ];
-  return { id: 'sec-manifest', number: ctx.number, title: 'Reproducibility manifest', newPage: true, blocks };
+  return { id: 'sec-manifest', number: ctx.number, title: 'Reproducibility manifest', blocks };
 };

@@ -1,6 +1,6 @@
 import type { TopResult } from '../../analysis/results.js';
 import { anchor, type SectionRule } from '../context.js';
-import { callout, code, col, para, row, strong, subheading, table, type Part } from '../blocks.js';
+import { callout, code, col, para, row, strong, subheading, table, xref, type Part } from '../blocks.js';
 import { formatCount, formatProbability } from '../format.js';
 import type { Block } from '../view.js';
 
@@ -28,7 +28,29 @@ export const resultsSection: SectionRule = (results, ctx) => {
       ),
     }),
   );
+  if (results.uncertainty?.length) {
+    blocks.push(
+      para(
+        strong('Which figure to carry forward. '),
+        'The probabilities above are point values: the model evaluated with every parameter at its stated value. ',
+        'A risk assessment that annualises risk usually carries forward the Monte Carlo mean, which is usually higher than the ',
+        'point value because the inputs’ uncertainty is skewed and like components share one draw; the uncertainty section',
+        xref('uncertainty', ' ({})'),
+        ' gives both with the 5th and 95th percentiles, and the key findings repeat them.',
+        xref('methods', ' Method: {}.', 'method-uncertainty'),
+      ),
+    );
+  }
   for (const top of results.tops) blocks.push(...topBlocks(top, ctx.nextTable));
+  blocks.push(
+    para(
+      '“Exact” above means free of the cut-set approximation: quote it rather than either approximation; where they differ, ',
+      'the gap shows how much a cut-set-only method would have been off. ',
+      results.tops.every((t) => t.cut_set_summary.coherent)
+        ? 'Every tree is coherent (no negation), so for independent events the exact value cannot exceed the MCUB, nor the MCUB the rare-event sum.'
+        : '',
+    ),
+  );
   if (results.warnings.length > 0) {
     blocks.push(
       subheading('sub-warnings', 'Warnings raised by the analysis'),
@@ -90,10 +112,10 @@ function topBlocks(top: TopResult, nextTable: () => string): Block[] {
     }),
     para(...comparison(top, exact, rare, mcub)),
     para(
-      `Minimal cut sets listed: ${formatCount(top.cut_set_summary.listed)}; decision-diagram nodes: ${formatCount(top.bdd_nodes)}. `,
+      `Minimal cut sets listed: ${formatCount(top.cut_set_summary.listed)}; decision-diagram nodes: ${formatCount(top.bdd_nodes)}.`,
       top.cut_set_summary.coherent
-        ? 'The tree is coherent (no negation), so for independent events the exact value cannot exceed the MCUB, nor the MCUB the rare-event sum.'
-        : 'The tree contains negation (it is not coherent), so neither approximation is guaranteed to lie above the exact value; only the exact figure should be used.',
+        ? ''
+        : ' The tree contains negation (it is not coherent), so neither approximation is guaranteed to lie above the exact value; only the exact figure should be used.',
     ),
   );
   return blocks;
@@ -101,21 +123,21 @@ function topBlocks(top: TopResult, nextTable: () => string): Block[] {
 
 /** What the spread between the three figures tells the reader, from the printed strings only. */
 function comparison(top: TopResult, exact: string, rare: string, mcub: string): Part[] {
-  const lead: Part[] = [strong('Reading the three figures. ')];
+  const lead: Part[] = [strong(`Reading the three figures for ${top.id}. `)];
   if (exact === rare && exact === mcub) {
     return [
       ...lead,
-      'They agree to the three significant figures shown: the cut sets are improbable enough, and overlap little enough, ',
-      'that the simple approximations would have served. The exact value is the one to quote.',
+      `They agree to the three significant figures shown (${exact}): the cut sets are improbable enough, and overlap little enough, `,
+      'that the simple approximations would have served.',
     ];
   }
   const truncated = top.cut_set_summary.truncated > 0;
   return [
     ...lead,
-    `The approximations differ from the exact value (rare-event ${rare}, MCUB ${mcub}, exact ${exact}). `,
-    'Both approximations are built from cut sets alone: they overstate the probability when cut-set probabilities are ',
-    'not small or cut sets share events, and they understate it when cut sets were dropped by the cutoff or order limit',
+    `The approximations differ from the exact value (rare-event ${rare}, MCUB ${mcub}, exact ${exact}): built from cut sets alone, `,
+    'they overstate the probability when cut-set probabilities are not small or cut sets share events, and understate it ',
+    'when cut sets were dropped by the cutoff or order limit',
     truncated ? ' (as some were here; see the cut-set section)' : '',
-    '. The exact value is the one to quote; the gap shows how much a cut-set-only method would have been off.',
+    '.',
   ];
 }

@@ -1,6 +1,6 @@
 import type { ScenarioResult } from '../../analysis/results.js';
 import { type SectionRule } from '../context.js';
-import { code, col, para, row, table, type Part } from '../blocks.js';
+import { code, col, para, row, table, xref, type Part } from '../blocks.js';
 import { formatProbability, formatQuantity, formatRatio } from '../format.js';
 import type { Block } from '../view.js';
 
@@ -11,12 +11,8 @@ export const scenarios: SectionRule = (results, ctx) => {
   const headline = results.tops[0]!;
   const blocks: Block[] = [
     para(
-      'Each scenario of the study changes the base case as listed — parameter values, house events (switches), planned ',
-      'renewals — and is quantified again at the snapshot date, ',
-      results.study.as_of,
-      '. “× base” is the scenario’s probability divided by the base case’s: below 1 the scenario makes failure less ',
-      'likely. A planned renewal takes effect on its date, so a scenario that only renews equipment later equals the base ',
-      'case here; its effect shows year by year in the forecast.',
+      `Each scenario quantified again at the snapshot date ${results.study.as_of}; “× base” is its probability divided by the base case’s. `,
+      xref('methods', 'Method: {}.', 'method-scenarios'),
     ),
   ];
   const ranked = list

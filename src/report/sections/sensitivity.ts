@@ -3,13 +3,13 @@ import { logAxis, withTicks } from '../charts/axes.js';
 import { lineChart } from '../charts/line-chart.js';
 import { tornadoChart } from '../charts/tornado.js';
 import { anchor, type BuildContext, type SectionRule } from '../context.js';
-import { code, col, listWords, para, row, subheading, table } from '../blocks.js';
-import { formatCount, formatDuration, formatNumber, formatProbability, formatQuantity, formatRatio } from '../format.js';
+import { code, col, counted, listWords, para, row, subheading, table, xref } from '../blocks.js';
+import { formatAsWritten, formatCount, formatDuration, formatNumber, formatProbability, formatRatio } from '../format.js';
 import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
 
 /** Rows in the tornado chart; the table lists every parameter that moves the top. */
-const TORNADO_ROWS = 12;
+const TORNADO_ROWS = 10;
 
 /**
  * One-at-a-time sensitivity: per top event, a tornado chart and table of the parameters that move
@@ -18,38 +18,37 @@ const TORNADO_ROWS = 12;
 export const sensitivity: SectionRule = (results, ctx) => {
   const list = (results.sensitivity ?? []).filter((s) => s.tornado.length > 0 || s.exercise_curve.length > 0);
   if (list.length === 0) return null;
-  const factor = results.settings['sensitivity_factor'];
   const blocks: Block[] = [
     para(
-      'Each parameter that a basic event reads was moved on its own to the low end and then to the high end of its ',
-      'stated range — or, where the study states no range, over its life-data fit’s bounds for a fitted shape or scale, ',
-      'and otherwise divided and multiplied by the study’s sensitivity factor ',
-      `(${typeof factor === 'number' ? formatNumber(factor) : String(factor)}; a probability is capped at 1) — with every other `,
-      'parameter at its value, and the top events quantified again. The swing is the top-event probability with the ',
-      'parameter high minus that with it low: a negative swing means a larger value makes failure less likely (a longer ',
-      'Weibull scale, for example). The tornado chart draws the widest swings, from the base case (the vertical line) to each ',
-      'end; the widest bars are the data the answer rests on most, and so the data most worth checking.',
+      'Each parameter moved on its own to the low and the high end of its range, every other parameter at its value; each ',
+      'row says where its range came from. The widest bars are the data the answer rests on most, and so the data most ',
+      'worth checking. ',
+      xref('methods', 'Method: {}.', 'method-sensitivity'),
     ),
   ];
-  for (const s of list) blocks.push(...topBlocks(results, s, ctx));
-  return { id: 'sec-sensitivity', number: ctx.number, title: 'Sensitivity', newPage: true, blocks };
+  const firstCurve = list.find((x) => x.exercise_curve.length > 0);
+  for (const s of list) blocks.push(...topBlocks(results, s, ctx, s === firstCurve));
+  return { id: 'sec-sensitivity', number: ctx.number, title: 'Sensitivity', blocks };
 };
 
-function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext): Block[] {
+function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext, explainCurve: boolean): Block[] {
   const top = results.tops.find((t) => t.id === s.top);
   const blocks: Block[] = [subheading(anchor('sensitivity', s.top), `${s.top}${top ? ` — ${top.title}` : ''}`)];
   const width = Math.min(contentBox(ctx.paper).width, 480);
   const moving = s.tornado.filter((t) => t.swing !== 0);
   const still = s.tornado.filter((t) => t.swing === 0);
-  const quantity = (key: string) => ctx.parametersByKey.get(key)?.quantity ?? 'number';
+  const asWritten = (key: string, value: number) => {
+    const p = ctx.parametersByKey.get(key);
+    return formatAsWritten(p?.quantity ?? 'number', value, p?.written);
+  };
   if (moving.length > 0) {
     const lead = moving[0]!;
     blocks.push(
       para(
         'The widest swing comes from ',
         code(lead.key),
-        `: the top-event probability is ${formatProbability(lead.low)} with it at ${formatQuantity(quantity(lead.key), lead.low_value)} `,
-        `and ${formatProbability(lead.high)} with it at ${formatQuantity(quantity(lead.key), lead.high_value)}, against `,
+        `: the top-event probability is ${formatProbability(lead.low)} with it at ${asWritten(lead.key, lead.low_value)} `,
+        `and ${formatProbability(lead.high)} with it at ${asWritten(lead.key, lead.high_value)}, against `,
         `${formatProbability(lead.base)} as studied. `,
         still.length > 0
           ? `${formatCount(still.length)} of the ${formatCount(s.tornado.length)} parameters do not move this top event at all and are left out of the table.`
@@ -70,7 +69,7 @@ function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext): B
       table({
         id: anchor('tab-tornado', s.top),
         number: ctx.nextTable(),
-        caption: `One-at-a-time sensitivity of ${s.top}, by the size of the swing`,
+        caption: `One-at-a-time sensitivity of ${s.top}: the ${counted(shown.length, 'widest swing')}`,
         columns: [
           col('Rank', 'right', { width: 'auto' }),
           col('Parameter', 'left', { code: true, width: 3 }),
@@ -79,25 +78,26 @@ function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext): B
           col('Top, low', 'right', { width: 'auto' }),
           col('Top, high', 'right', { width: 'auto' }),
           col('Swing', 'right', { width: 'auto' }),
-          col('Ends from', 'left', { width: 'auto' }),
+          col('Range from', 'left', { width: 2 }),
         ],
-        rows: moving.map((t, n) =>
+        rows: shown.map((t, n) =>
           row(
             [
               String(n + 1),
               t.key,
-              formatQuantity(quantity(t.key), t.low_value),
-              formatQuantity(quantity(t.key), t.high_value),
+              asWritten(t.key, t.low_value),
+              asWritten(t.key, t.high_value),
               formatProbability(t.low),
               formatProbability(t.high),
               formatProbability(t.swing),
-              t.range_basis,
+              rangeBasis(t, results),
             ],
-            { sortKeys: [n + 1, t.key, t.low_value, t.high_value, t.low, t.high, t.swing, t.range_basis] },
+            { sortKeys: [n + 1, t.key, t.low_value, t.high_value, t.low, t.high, t.swing, rangeBasis(t, results)] },
           ),
         ),
         sortable: true,
         sortedBy: { column: 0, descending: false },
+        ...(moving.length > shown.length ? { note: `${counted(moving.length - shown.length, 'parameter')} with smaller swings ${moving.length - shown.length === 1 ? 'is' : 'are'} in results.json (sensitivity).` } : {}),
       }),
     );
   } else if (s.tornado.length > 0) {
@@ -112,11 +112,25 @@ function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext): B
       ),
     );
   }
-  if (s.exercise_curve.length > 0) blocks.push(...exerciseBlocks(results, s, ctx, width));
+  if (s.exercise_curve.length > 0) blocks.push(...exerciseBlocks(results, s, ctx, width, explainCurve));
   return blocks;
 }
 
-function exerciseBlocks(results: Results, s: SensitivityResult, ctx: BuildContext, width: number): Block[] {
+type TornadoRow = SensitivityResult['tornado'][number] & { range_source?: string; range_basis?: string };
+
+/**
+ * Where a tornado row's range came from, in words: the analysis says so (`range_basis`); results
+ * from before it did are described from the parameter (a stated range, else the default factor).
+ */
+function rangeBasis(t: TornadoRow, results: Results): string {
+  if (t.range_basis) return t.range_basis;
+  if (results.parameters.find((p) => p.key === t.key)?.range) return 'stated range';
+  const factor = results.settings['sensitivity_factor'];
+  return typeof factor === 'number' ? `default factor ×/÷ ${formatNumber(factor)}` : 'default factor';
+}
+
+/** The curve's set-up and why it rises are said with the first top's curve only; later tops give their numbers. */
+function exerciseBlocks(results: Results, s: SensitivityResult, ctx: BuildContext, width: number, explain: boolean): Block[] {
   const exercised = results.parameters.filter((p) => p.field === 'exercise' && p.used_by.length > 0);
   const base = s.exercise_curve.find((c) => c.base);
   const points = s.exercise_curve.filter((c) => !c.base && c.years !== undefined);
@@ -124,12 +138,13 @@ function exerciseBlocks(results: Results, s: SensitivityResult, ctx: BuildContex
   const last = points[points.length - 1];
   const blocks: Block[] = [
     para(
-      `The exercise interval: every exercise field of the study (${listWords(exercised.map((p) => p.key))}) set together to `,
-      `${listWords(points.map((p) => p.label))}, everything else as studied. `,
+      explain
+        ? `The exercise interval: every exercise field of the study (${listWords(exercised.map((p) => p.key))}) set together to ${listWords(points.map((p) => p.label))}, everything else as studied. `
+        : '',
       first && last
         ? `Exercising ${first.label} gives ${formatProbability(first.probability)} (${formatRatio(first.ratio)} × as studied); ${last.label}, ${formatProbability(last.probability)} (${formatRatio(last.ratio)} ×). `
         : '',
-      'A component that waits longer between exercises has longer to fail unseen before the demand, so the curve rises with the interval.',
+      explain ? 'A component that waits longer between exercises has longer to fail unseen before the demand, so the curve rises with the interval.' : '',
     ),
   ];
   const figure = ctx.nextFigure();
@@ -151,6 +166,7 @@ function exerciseBlocks(results: Results, s: SensitivityResult, ctx: BuildContex
         label: `${figure}. ${caption}`,
         x,
         y,
+        frameHeight: 130,
         ...(base ? { references: [{ axis: 'y' as const, value: base.probability, label: `as studied ${formatProbability(base.probability)}` }] } : {}),
       }),
     ],

@@ -9,6 +9,8 @@ export const titleBlock: SectionRule = (results) => {
   const blocks: Block[] = [
     keyValues([
       ['Facility', s.facility],
+      ...(s.report?.client ? [['Client', s.report.client] as [string, string]] : []),
+      ...(s.report?.consultant ? [['Consultant', s.report.consultant] as [string, string]] : []),
       ['Study', s.title],
       ['Revision', s.revision],
       ['Status', s.status],

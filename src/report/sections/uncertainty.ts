@@ -1,9 +1,7 @@
 import type { Results, UncertaintyResult } from '../../analysis/results.js';
 import { histogramChart } from '../charts/histogram.js';
-import { linearAxis, logAxis } from '../charts/axes.js';
-import { lineChart } from '../charts/line-chart.js';
 import { anchor, type BuildContext, type SectionRule } from '../context.js';
-import { callout, code, col, para, row, subheading, table, type Part } from '../blocks.js';
+import { callout, code, col, counted, para, row, subheading, table, xref, type Part } from '../blocks.js';
 import { formatCount, formatProbability, formatShare } from '../format.js';
 import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
@@ -19,15 +17,9 @@ export const uncertainty: SectionRule = (results, ctx) => {
   const method = u0.method === 'latin-hypercube' ? 'Latin hypercube sampling (McKay, Beckman & Conover, 1979)' : 'plain Monte Carlo sampling';
   const blocks: Block[] = [
     para(
-      `The uncertainty of the parameters was carried to the top events by ${formatCount(u0.samples)} trials of ${method}, `,
-      `with the study’s seed ${String(u0.seed)}: the same study and seed give the same numbers. In each trial every parameter `,
-      'that states an uncertainty distribution is drawn once, so all the events of one component class share their ',
-      'class’s draw — the state-of-knowledge correlation of like components, without which the spread of a redundant system ',
-      'would be understated. ',
-      u0.sampled_parameters.some((k) => ctx.parametersByKey.get(k)?.uncertainty?.['kind'] === 'fit')
-        ? 'A Weibull shape and scale fitted from life records are drawn together, from the normal law of their logarithms with the fit’s covariance. '
-        : '',
-      `The ${formatCount(u0.sampled_parameters.length)} sampled parameters are `,
+      `${formatCount(u0.samples)} trials of ${method} with the study’s seed ${String(u0.seed)}; like components share one draw per trial. `,
+      xref('methods', 'Method and the mean against the point value: {}. ', 'method-uncertainty'),
+      `The ${counted(u0.sampled_parameters.length, 'sampled parameter')}: `,
       ...joinCodes(u0.sampled_parameters),
       '.',
     ),
@@ -50,7 +42,7 @@ export const uncertainty: SectionRule = (results, ctx) => {
     );
   }
   for (const u of list) blocks.push(...topBlocks(results, u, ctx));
-  return { id: 'sec-uncertainty', number: ctx.number, title: 'Uncertainty', newPage: true, blocks };
+  return { id: 'sec-uncertainty', number: ctx.number, title: 'Uncertainty', blocks };
 };
 
 function joinCodes(keys: string[]): Part[] {
@@ -76,10 +68,8 @@ function topBlocks(results: Results, u: UncertaintyResult, ctx: BuildContext): B
   ];
   if (point !== undefined) {
     sentences.push(
-      `The point estimate, ${formatProbability(point)}, is the top event quantified at the parameters’ stated values; `,
-      u.mean > point
-        ? 'the mean lies above it, as is usual when the inputs’ uncertainty is skewed (a lognormal’s mean lies above its median) and like components share one draw, so that a bad draw for a redundant class counts for more than a good one saves. '
-        : 'the mean does not exceed it here. ',
+      `The point value, ${formatProbability(point)}, is the top event at the parameters’ stated values; `,
+      u.mean > point ? 'the mean lies above it, as is usual with skewed inputs and shared draws. ' : 'the mean does not exceed it here. ',
     );
   }
   sentences.push(
@@ -105,6 +95,8 @@ function topBlocks(results: Results, u: UncertaintyResult, ctx: BuildContext): B
         row(['Median', formatProbability(u.median)]),
         row(['95th percentile', formatProbability(u.p95)]),
         row(['95th percentile, first half of the trials', formatProbability(c.p95_half)]),
+        // The rest of the cumulative curve: every percentile the analysis gave beyond the three above.
+        ...u.cdf.filter((p) => ![0.05, 0.5, 0.95].includes(p.p)).map((p) => row([`${formatShare(p.p)} of trials at or below`, formatProbability(p.value)])),
       ],
     }),
   );
@@ -127,33 +119,5 @@ function topBlocks(results: Results, u: UncertaintyResult, ctx: BuildContext): B
     parts: [histogramChart(u.histogram, { width, label: `${hFigure}. ${hCaption}`, xTitle: `Probability of ${u.top}`, markers })],
   });
 
-  const cFigure = ctx.nextFigure();
-  const cCaption = `Cumulative distribution of the probability of ${u.top}`;
-  const x = logAxis([...u.cdf.map((p) => p.value), ...(point !== undefined ? [point] : [])], `Probability of ${u.top}`);
-  const y = linearAxis([0, 1], 'Fraction of trials at or below', { zero: true, format: formatShare });
-  blocks.push({
-    kind: 'figure',
-    id: anchor('fig-cdf', u.top),
-    number: cFigure,
-    caption: cCaption,
-    parts: [
-      lineChart([{ name: u.top, points: u.cdf.map((p) => ({ x: p.value, y: p.p })), markers: true }], {
-        width,
-        label: `${cFigure}. ${cCaption}`,
-        x,
-        y,
-        ...(point !== undefined ? { references: [{ axis: 'x' as const, value: point, label: 'point estimate' }] } : {}),
-      }),
-    ],
-  });
-  blocks.push(
-    table({
-      id: anchor('tab-cdf', u.top),
-      number: ctx.nextTable(),
-      caption: `Percentiles of the probability of ${u.top}`,
-      columns: [col('Fraction of trials at or below', 'right', { width: 'auto' }), col('Probability', 'right', { width: 'auto' })],
-      rows: u.cdf.map((p) => row([formatShare(p.p), formatProbability(p.value)])),
-    }),
-  );
   return blocks;
 }
