@@ -146,23 +146,26 @@ export function cholesky2(c: readonly (readonly number[])[]): [number, number, n
  * Rows of unit uniforms, one per trial: plain sampling draws each row from the generator in order;
  * Latin hypercube sampling (McKay, Beckman & Conover 1979) draws each dimension's column of n
  * stratified values up front (`latinHypercube`), dimension by dimension, from the same generator.
- * Either way trial t's row depends only on the seed and t: a reader that starts at trial `from`
- * (another thread's share of the trials) first passes over the generator's outputs of the trials
- * before it, so it gets the rows a reader from trial 0 would.
+ * Either way trial t's row depends only on the seed and t: a reader asked for a later trial than the
+ * next one (another thread ran the trials between) passes over the generator's outputs of the trials
+ * it skips, so it gets the rows a reader that went through every trial would.
  */
 export interface UniformRows {
-  /** Fill `out` (length = dimensions) with trial t's uniforms; trials are asked for in order from, from + 1, … */
+  /** Fill `out` (length = dimensions) with trial t's uniforms; t must increase from call to call. */
   row(t: number, out: Float64Array): void;
 }
 
-export function uniformRows(seed: number, method: 'monte-carlo' | 'latin-hypercube', trials: number, dimensions: number, from = 0): UniformRows {
+export function uniformRows(seed: number, method: 'monte-carlo' | 'latin-hypercube', trials: number, dimensions: number): UniformRows {
   const rng: Rng = createRng(seed);
   if (method === 'monte-carlo') {
-    // Each uniform takes two 32-bit outputs (random.ts `next`).
-    for (let k = 2 * from * dimensions; k > 0; k--) rng.nextUint32();
+    let next = 0;
     return {
-      row(_t, out) {
+      row(t, out) {
+        if (t < next) throw new RangeError(`uniform rows are read forwards: trial ${t} after ${next - 1}`);
+        // Each uniform takes two 32-bit outputs (random.ts `next`).
+        for (let k = 2 * (t - next) * dimensions; k > 0; k--) rng.nextUint32();
         for (let d = 0; d < dimensions; d++) out[d] = rng.next();
+        next = t + 1;
       },
     };
   }
