@@ -26,7 +26,6 @@
  * of dependence between modes beyond the shared load.
  */
 import type { FailureModeSet } from '../study/types.js';
-import { poissonBinomial } from './gate-counts.js';
 
 /** Sum, uni-modal lower and upper bound of the probability that at least one mode occurs. */
 export function uniModalBounds(p: readonly number[]): { sum: number; lower: number; upper: number } {
@@ -44,12 +43,22 @@ export function uniModalBounds(p: readonly number[]): { sum: number; lower: numb
 
 /** The common-cause adjustment (item 4 above): each mode's share of the union under independence. */
 export function commonCauseAdjustment(p: readonly number[]): number[] {
+  const n = p.length;
+  // dist = the Poisson-binomial of the other modes (poissonBinomial's recursion, on one reused array).
+  const dist = new Array<number>(n).fill(0);
   return p.map((pi, i) => {
-    const others = poissonBinomial(p.filter((_, j) => j !== i));
+    dist.fill(0);
+    dist[0] = 1;
+    let m = 0;
+    for (let k = 0; k < n; k++) {
+      if (k === i) continue;
+      const q = p[k]!;
+      for (let j = m + 1; j >= 1; j--) dist[j] = dist[j]! * (1 - q) + dist[j - 1]! * q;
+      dist[0] = dist[0]! * (1 - q);
+      m += 1;
+    }
     let share = 0;
-    others.forEach((pc, c) => {
-      share += pc / (c + 1);
-    });
+    for (let c = 0; c < n; c++) share += dist[c]! / (c + 1);
     return pi * share;
   });
 }
