@@ -15,6 +15,7 @@ import { commonCauseOf } from './common-cause.js';
 import { parametersSampled } from './event-plan.js';
 import { derivedRecipe, sectionValue, type DerivedRecipe } from './outcome-quantities.js';
 import type { QuantityUncertainty, Results, UncertaintyResult } from './results.js';
+import { sampleQuantile } from '../reliability/distributions.js';
 import { ParameterSampler } from './sampling.js';
 import { meanAndSd, quantileSorted, sortedCopy, summarize } from './statistics.js';
 import { CHUNK, runParallel } from './parallel-trials.js';
@@ -185,15 +186,41 @@ export const uncertaintyStage: Stage = (ctx) => {
   if (u.results.length > 0) out.uncertainty = u.results;
   const outcomes = u.run ? outcomeUncertainty(u.run, ctx.results) : [];
   if (outcomes.length > 0) out.outcome_uncertainty = outcomes;
+  const warnings: Results['warnings'] = [];
   if (u.held.length > 0) {
     const byKey = new Map(study.parameters.map((p) => [p.key, p]));
-    out.warnings = [
-      ...ctx.results.warnings,
-      ...u.held.map((h) => {
-        const at = byKey.get(h.key)!.at;
-        return { code: 'uncertainty-not-sampled', message: `the uncertainty of '${h.key}' is not sampled: ${h.reason}`, at: { file: at.file, line: at.line } };
-      }),
-    ];
+    for (const h of u.held) {
+      const at = byKey.get(h.key)!.at;
+      warnings.push({ code: 'uncertainty-not-sampled', message: `the uncertainty of '${h.key}' is not sampled: ${h.reason}`, at: { file: at.file, line: at.line } });
+    }
   }
+  if (u.run && u.run.clippedTrials > 0) warnings.push(clippedWarning(study, u.run));
+  if (warnings.length > 0) out.warnings = [...ctx.results.warnings, ...warnings];
   return out;
 };
+
+/**
+ * The warning for trials in which a sampled probability came out above 1 and was set to 1: how many
+ * trials, and which sampled probabilities can exceed 1 (their distribution reaches above 1), so the
+ * reader knows the tail was cut and where to state a bounded distribution (beta, or a normal with max: 1).
+ */
+function clippedWarning(study: Study, run: MonteCarloRun): Results['warnings'][number] {
+  const sampled = new Set(run.sampled);
+  const able = study.parameters.filter(
+    (p) => sampled.has(p.key) && p.quantity === 'probability' && p.uncertainty && p.uncertainty.kind !== 'fit' && sampleQuantile(p.uncertainty, LARGEST_UNIFORM) > 1,
+  );
+  const share = ((100 * run.clippedTrials) / run.samples).toPrecision(2);
+  const which = able.length > 0 ? `: ${able.map((p) => `'${p.key}'`).join(', ')} can exceed 1` : '';
+  const w: Results['warnings'][number] = {
+    code: 'sampled-probability-clipped',
+    message:
+      `in ${run.clippedTrials.toLocaleString('en-US')} of ${run.samples.toLocaleString('en-US')} Monte Carlo trials (${share} %) a sampled probability was above 1 and was set to 1${which}; ` +
+      'the upper tail of the uncertainty is cut there (a beta distribution, or a normal with max: 1, stays within 0 to 1)',
+  };
+  const first = able[0];
+  if (first) w.at = { file: first.at.file, line: first.at.line };
+  return w;
+}
+
+/** The largest uniform the generator gives (random.ts: 1 − 2^-53). */
+const LARGEST_UNIFORM = 1 - 2 ** -53;
