@@ -86,25 +86,50 @@ export function modeNumbers(
   outcomeByRange: (outcome: string) => readonly number[],
   value: (key: string) => number,
 ): ModeNumbers {
+  // Plain loops (this runs in every Monte Carlo trial); the arithmetic is the formulas above, in a fixed order.
   const R = rangeP.length;
-  const conditional = set.modes.map((mode) => {
+  const n = set.modes.length;
+  const conditional: number[][] = [];
+  for (const mode of set.modes) {
     const b = mode.basis;
-    if (b.kind === 'probability') return rangeP.map(() => value(b.key));
-    if (b.kind === 'by-range') return b.keys.map(value);
-    // P(outcome | range): the outcome's annual probability in the range over the range's.
-    return outcomeByRange(b.outcome).map((x, r) => (rangeP[r]! > 0 ? x / rangeP[r]! : 0));
-  });
-  const perRange = Array.from({ length: R }, (_, r) => conditional.map((c) => c[r]!));
-  const byRange = perRange.map(uniModalBounds);
-  const perRangeAdjusted = perRange.map(commonCauseAdjustment);
-  const annualOf = (xs: readonly number[]) => xs.reduce((s, x, r) => s + rangeP[r]! * x, 0);
-  const adjusted = set.modes.map((_, i) => perRangeAdjusted.map((a) => a[i]!));
+    const c = new Array<number>(R);
+    if (b.kind === 'probability') for (let r = 0; r < R; r++) c[r] = value(b.key);
+    else if (b.kind === 'by-range') for (let r = 0; r < R; r++) c[r] = value(b.keys[r]!);
+    else {
+      // P(outcome | range): the outcome's annual probability in the range over the range's.
+      const o = outcomeByRange(b.outcome);
+      for (let r = 0; r < R; r++) c[r] = rangeP[r]! > 0 ? o[r]! / rangeP[r]! : 0;
+    }
+    conditional.push(c);
+  }
+  const byRange: { sum: number; lower: number; upper: number }[] = [];
+  const adjusted: number[][] = conditional.map(() => new Array<number>(R));
+  const perRange = new Array<number>(n);
+  for (let r = 0; r < R; r++) {
+    for (let i = 0; i < n; i++) perRange[i] = conditional[i]![r]!;
+    byRange.push(uniModalBounds(perRange));
+    const a = commonCauseAdjustment(perRange);
+    for (let i = 0; i < n; i++) adjusted[i]![r] = a[i]!;
+  }
+  const annualOf = (xs: readonly number[]): number => {
+    let s = 0;
+    for (let r = 0; r < R; r++) s += rangeP[r]! * xs[r]!;
+    return s;
+  };
+  const sums = new Array<number>(R);
+  const lowers = new Array<number>(R);
+  const uppers = new Array<number>(R);
+  for (let r = 0; r < R; r++) {
+    sums[r] = byRange[r]!.sum;
+    lowers[r] = byRange[r]!.lower;
+    uppers[r] = byRange[r]!.upper;
+  }
   return {
     conditional,
     adjusted,
     annual: conditional.map(annualOf),
     adjustedAnnual: adjusted.map(annualOf),
     byRange,
-    total: { sum: annualOf(byRange.map((b) => b.sum)), lower: annualOf(byRange.map((b) => b.lower)), upper: annualOf(byRange.map((b) => b.upper)) },
+    total: { sum: annualOf(sums), lower: annualOf(lowers), upper: annualOf(uppers) },
   };
 }
