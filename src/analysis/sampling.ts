@@ -20,13 +20,13 @@
  * should be truncated or be a positive one).
  */
 import { createRng, latinHypercube, type Rng } from '../reliability/random.js';
-import { dirichletFromUniforms, sampleQuantile } from '../reliability/distributions.js';
+import { dirichletFromUniforms, quantileFunction } from '../reliability/distributions.js';
 import { normalQuantile } from '../reliability/special.js';
 import { StudyError } from '../study/errors.js';
-import type { Parameter, Study, Uncertainty } from '../study/types.js';
+import type { Parameter, Study } from '../study/types.js';
 
 type Draw =
-  | { kind: 'quantile'; param: number; dim: number; u: Exclude<Uncertainty, { kind: 'fit' }> }
+  | { kind: 'quantile'; param: number; dim: number; quantile: (unitUniform: number) => number }
   | { kind: 'log-normal-pair'; param: number; dims: [number, number]; weights: [number, number]; logCentre: number }
   | { kind: 'dirichlet'; group: string; params: number[]; dims: number[]; a: number[]; gammas: Float64Array };
 
@@ -66,7 +66,7 @@ export class ParameterSampler implements SamplerPlan {
         return;
       }
       if (u.kind !== 'fit') {
-        this.draws.push({ kind: 'quantile', param: i, dim: dims++, u });
+        this.draws.push({ kind: 'quantile', param: i, dim: dims++, quantile: quantileFunction(u) });
         this.varying.add(i);
         return;
       }
@@ -123,7 +123,7 @@ export class ParameterSampler implements SamplerPlan {
         continue;
       }
       if (d.kind === 'quantile') {
-        v = sampleQuantile(d.u, uniforms[d.dim]!);
+        v = d.quantile(uniforms[d.dim]!);
       } else {
         const z1 = normalQuantile(uniforms[d.dims[0]]!);
         const z2 = normalQuantile(uniforms[d.dims[1]]!);

@@ -107,6 +107,22 @@ export function sampleQuantile(u: Uncertainty, unitUniform: number): number {
   }
 }
 
+/**
+ * `sampleQuantile` for one distribution, prepared once for many draws (the Monte Carlo): the
+ * lognormal's σ is computed once; every value is the one sampleQuantile gives, bit for bit.
+ */
+export function quantileFunction(u: Uncertainty): (unitUniform: number) => number {
+  assertSampled(u);
+  if (u.kind === 'lognormal' && u.median > 0) {
+    const sigma = lognormalSigma(u.ef);
+    if (sigma > 0) {
+      const median = u.median;
+      return (p) => (p >= 0 && p <= 1 ? median * Math.exp(sigma * normalQuantile(p)) : NaN);
+    }
+  }
+  return (p) => sampleQuantile(u, p);
+}
+
 export interface UncertaintySummary {
   mean: number;
   median: number;
