@@ -5,11 +5,11 @@
  * Prints its figures; never fails on a timing. Run `npm run build` first (`npm run bench` does).
  */
 import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, writeFileSync, existsSync } from 'node:fs';
+import { mkdtempSync, existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { syntheticTree } from './synthetic.js';
+import { syntheticStudy } from './synthetic-study.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const bin = join(root, 'bin', 'faultbook.js');
@@ -35,25 +35,6 @@ function timeRuns(study: string, runs: number): { median: number; all: number[];
   const info = spawnSync('pdfinfo', [join(out, 'appendix.pdf')], { encoding: 'utf8' });
   const pages = info.status === 0 ? /Pages:\s+(\d+)/.exec(info.stdout)?.[1] : undefined;
   return { median: sorted[Math.floor(sorted.length / 2)]!, all, ...(pages ? { pages } : {}) };
-}
-
-/** A 2,000-event study folder from the seeded synthetic tree (invented structure and numbers). */
-function syntheticStudy(events: number): string {
-  const tree = syntheticTree({ events, seed: 7 });
-  const dir = mkdtempSync(join(tmpdir(), 'faultbook-bench-study-'));
-  mkdirSync(dir, { recursive: true });
-  writeFileSync(join(dir, 'study.yaml'), `format: faultbook/1\ntitle: Synthetic benchmark study (invented)\nfacility: none (invented)\nas_of: 2026-06-30\nsettings: { samples: 2000, horizon: 5 }\n`);
-  writeFileSync(join(dir, 'sources.yaml'), 'sources:\n  synthetic: { title: Seeded synthetic values (invented), invented: true }\n');
-  const ev = tree.graph.variables.map((id, i) => `  ${id}: { title: Synthetic event ${i}, model: fixed, probability: { value: ${tree.p[i]!.toPrecision(6)}, source: synthetic } }`);
-  writeFileSync(join(dir, 'events.yaml'), `events:\n${ev.join('\n')}\n`);
-  const ref = (r: { kind: string; index?: number; value?: boolean }) => (r.kind === 'var' ? tree.graph.variables[r.index!] : tree.graph.gates[r.index!]!.id);
-  const gates = tree.graph.gates.map((g) => {
-    const inputs = `[${g.inputs.map(ref).join(', ')}]`;
-    const body = g.op === 'or' ? `any: ${inputs}` : g.op === 'and' ? `all: ${inputs}` : g.op === 'atleast' ? `atleast: ${g.k}, of: ${inputs}` : `not: ${ref(g.inputs[0]!)}`;
-    return `  ${g.id}: { ${body} }`;
-  });
-  writeFileSync(join(dir, 'logic.yaml'), `tops:\n  top: { title: Synthetic top event, gate: ${tree.graph.gates[tree.top]!.id} }\ngates:\n${gates.join('\n')}\n`);
-  return dir;
 }
 
 const fmt = (ms: number) => `${(ms / 1000).toFixed(2)} s`;

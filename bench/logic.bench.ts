@@ -9,12 +9,12 @@
  * A small warm-up tree runs first in every child so the timings are not of the JIT compiler.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { compile, importance, minimalCutSets, probability } from '../src/logic/index.js';
-import type { LogicGraph } from '../src/logic/graph.js';
 import { syntheticTree, type SyntheticTree } from './synthetic.js';
+import { prepareBuddy, writeBuddyDump } from './buddy/dump.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const outDir = join(here, 'out');
@@ -61,49 +61,9 @@ function timed<T>(f: () => T): [T, number] {
   return [r, performance.now() - t0];
 }
 
-/** Gates in an order where every gate comes after its inputs (post-order from each gate). */
-function buildOrder(graph: LogicGraph): number[] {
-  const seen = new Uint8Array(graph.gates.length);
-  const out: number[] = [];
-  for (let s = 0; s < graph.gates.length; s++) {
-    if (seen[s]) continue;
-    const stack: [number, number][] = [[s, 0]];
-    seen[s] = 1;
-    while (stack.length) {
-      const top = stack[stack.length - 1]!;
-      const inputs = graph.gates[top[0]]!.inputs;
-      if (top[1] < inputs.length) {
-        const r = inputs[top[1]++]!;
-        if (r.kind === 'gate' && !seen[r.index]) {
-          seen[r.index] = 1;
-          stack.push([r.index, 0]);
-        }
-      } else {
-        out.push(top[0]);
-        stack.pop();
-      }
-    }
-  }
-  return out;
-}
-
 /** The function as BuDDy's helper reads it (format in bench/buddy/build.c): variables by level. */
 function writeDump(path: string, t: SyntheticTree, order: number[], nodeHint: number): void {
-  const levelOf = new Int32Array(order.length);
-  order.forEach((v, l) => (levelOf[v] = l));
-  const seq = buildOrder(t.graph);
-  const pos = new Int32Array(t.graph.gates.length);
-  seq.forEach((g, i) => (pos[g] = i));
-  const lines = [`vars ${order.length}`, `nodes ${nodeHint}`, `p ${order.map((v) => String(t.p[v])).join(' ')}`, `gates ${seq.length}`];
-  for (const g of seq) {
-    const gate = t.graph.gates[g]!;
-    const refs = gate.inputs.map((r) =>
-      r.kind === 'var' ? `v${levelOf[r.index]}` : r.kind === 'gate' ? `g${pos[r.index]}` : r.value ? 'c1' : 'c0',
-    );
-    lines.push(`gate ${gate.op} ${gate.k ?? 0} ${refs.length} ${refs.join(' ')}`);
-  }
-  lines.push(`top ${pos[t.top]}`);
-  writeFileSync(path, lines.join('\n') + '\n');
+  writeBuddyDump(path, t.graph, t.p, t.top, order, nodeHint);
 }
 
 function runPipeline(t: SyntheticTree): Omit<CaseResult, 'buddy' | 'events' | 'shared' | 'gates'> & { order: number[] } {
@@ -191,17 +151,6 @@ function runCase(events: number, buddyBinary: string | null): CaseResult {
   return result;
 }
 
-function prepareBuddy(): string | { skipped: string } {
-  const gccOk = spawnSync('gcc', ['--version'], { encoding: 'utf8' });
-  if (gccOk.status !== 0) return { skipped: 'gcc not found' };
-  if (!existsSync('/usr/include/bdd.h')) return { skipped: 'libbdd-dev (bdd.h) not installed' };
-  mkdirSync(outDir, { recursive: true });
-  const bin = join(outDir, 'buddy-build');
-  const cc = spawnSync('gcc', ['-O2', '-o', bin, join(here, 'buddy', 'build.c'), '-lbdd'], { encoding: 'utf8' });
-  if (cc.status !== 0) return { skipped: `gcc failed: ${cc.stderr.trim().slice(0, 300)}` };
-  return bin;
-}
-
 const pad = (s: string | number, n: number): string => String(s).padStart(n);
 const ms = (x: number): string => (x < 10 ? x.toFixed(1) : x.toFixed(0));
 
@@ -213,7 +162,7 @@ function main(): void {
     console.log(JSON.stringify(runCase(events, bin && bin !== '-' ? bin : null)));
     return;
   }
-  const buddy = prepareBuddy();
+  const buddy = prepareBuddy(outDir);
   const binArg = typeof buddy === 'string' ? buddy : '-';
   console.log(`Boolean core on seeded synthetic trees (seed ${SEED}; ~30% shared events; p log-uniform 1e-5..1e-2)`);
   console.log(`cut sets: cutoff ${CUTOFF}, max order ${MAX_ORDER}. Peak RSS is per child process, cumulative over its phases.`);

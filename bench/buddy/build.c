@@ -10,7 +10,8 @@
  *
  * Dump format, one item per line:
  *   vars N                 number of variables; BuDDy variable i is our level i
- *   nodes M                node-table hint (our node count), so neither side garbage-collects
+ *   nodes M                node-table hint (our node count), so neither side garbage-collects;
+ *                          0 = start small, collect and grow as BuDDy normally does
  *   p P0 P1 ... P(N-1)     probability per level
  *   gates G
  *   gate OP K NIN REF...   in build order; OP = or|and|atleast|not, REF = vL (level L),
@@ -181,7 +182,9 @@ int main(int argc, char **argv) {
     /* Room for every node we made, plus slack, so BuDDy need not collect or resize either. */
     int table = hint + hint / 4 + 100000;
     bdd_init(table, table / 4 > 10000 ? table / 4 : 10000);
-    bdd_setmaxincrease(0);
+    /* A hint of 0 asks for BuDDy as it is normally used: a small table that it collects and
+       grows (by up to 4M nodes at a time) as the build needs. */
+    bdd_setmaxincrease(hint > 0 ? 0 : 1 << 22);
     bdd_gbc_hook(quiet_gc);
     bdd_setvarnum(nvars > 0 ? nvars : 1);
     double t1 = now_ms();

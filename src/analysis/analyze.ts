@@ -10,10 +10,12 @@ import { driversStage } from './drivers-stage.js';
 import { evaluateEvents, EventProbabilityError, type EventEvaluation } from './event-probability.js';
 import { fitsStage } from './fits.js';
 import { buildLogicModel, type LogicModel } from './logic-model.js';
-import { boundTops, boundWarning, compileBaseCase, quantifyTops } from './quantify.js';
+import { boundTops, boundWarning, cappedWarnings, compileBaseCase, quantifyTops } from './quantify.js';
 import { describeStudy } from './results-parts.js';
 import { sharedCauseStage } from './shared-cause-stage.js';
 import { uncertaintyStage } from './uncertainty.js';
+import { capWarnings } from './input-warnings.js';
+import { extrapolation } from '../study/fits.js';
 import type { EventResult, Results } from './results.js';
 
 export interface AnalyzeOptions {
@@ -59,7 +61,7 @@ export function analyze(study: Study, options: AnalyzeOptions = {}): Results {
     events: eventResults(study, evaluation),
     parameters: parts.parameters,
     tops,
-    warnings: parts.warnings,
+    warnings: [...parts.warnings, ...capWarnings(study, evaluation), ...cappedWarnings(tops)],
   };
   if (!compiled) {
     // Every further stage re-evaluates the diagram; without one the results stop at the bounds.
@@ -98,6 +100,8 @@ function eventResults(study: Study, evaluation: EventEvaluation): EventResult[] 
     if (e.installed) r.installed = e.installed;
     if (e.renewed) r.renewed = e.renewed;
     if (e.on !== undefined) r.on = e.on;
+    const x = extrapolation(study, e);
+    if (x) r.extrapolated = x;
     return r;
   });
 }

@@ -44,7 +44,17 @@ export class CaseQuantifier {
 
   /** Top probabilities of a case, events evaluated from the study's values and the case's changes. */
   tops(c: Case): Float64Array {
-    return this.topsAt(c, evaluateEvents(this.study, c, undefined, this.base).probability);
+    return this.topsAt(c, this.events(c));
+  }
+
+  /** The decision-diagram vector of a case (one probability per variable), from the study's values and the case's changes. */
+  events(c: Case): Float64Array {
+    return evaluateEvents(this.study, c, undefined, this.base).probability;
+  }
+
+  /** The base case's decision-diagram vector. */
+  get baseEvents(): Float64Array {
+    return this.base.probability;
   }
 
   private prepare(compiled: CompiledLogic): { compiled: CompiledLogic; evaluator: ProbabilityEvaluator } {

@@ -20,7 +20,7 @@ export const driversStage: Stage = (ctx) => {
   const base = evaluator.evaluate(ctx.base.probability);
   const out: Partial<Results> = {};
 
-  const classes = classImportance(study, evaluator, ctx.base.probability);
+  const classes = classImportance(study, evaluator, ctx.base.probability, ctx.compiled.negationFree);
   if (classes.some((list) => list.length > 0)) {
     out.tops = ctx.results.tops.map((t, i) => ({ ...t, class_importance: classes[i]! }));
   }

@@ -101,22 +101,36 @@ export function evaluateEvents(study: Study, c: Case, values?: ParameterValues, 
   const probability = touched ? Float64Array.from(base!.total) : new Float64Array(n);
   const used: Record<string, number>[] = touched ? [...base!.used] : [];
   const ages: (number | undefined)[] = touched ? [...base!.ages] : [];
-  study.events.forEach((e, i) => {
-    if (touched && !touched.has(i)) return;
-    const fields: Record<string, number> = {};
-    for (const field of Object.keys(e.fields)) fields[field] = fieldValue(e, field, c, lookup)!;
-    const age = ageInCase(study, e, c);
-    const on = c.switches.get(e.id) ?? e.on;
-    const q = modelProbability(e.model, fields, {
-      ...(age !== undefined ? { ageYears: age } : {}),
-      exerciseBasis: study.settings.exercise_basis,
-      ...(on !== undefined ? { on } : {}),
-    });
-    if (!(q >= 0 && q <= 1)) throw new EventProbabilityError(e, q, fields);
-    probability[i] = q;
-    used[i] = fields;
-    ages[i] = age;
-  });
+  // With `touched`, only those events are evaluated again (one-at-a-time sensitivity of a large
+  // study touches one or a few per point; walking all of them per point was quadratic).
+  const indices: Iterable<number> = touched ? [...touched].sort((a, b) => a - b) : study.events.keys();
+  for (const i of indices) {
+    const one = evaluateEvent(study, i, c, lookup);
+    probability[i] = one.probability;
+    used[i] = one.fields;
+    ages[i] = one.age;
+  }
   const expanded = commonCauseOf(study).apply(probability, (key) => c.overrides.get(key) ?? lookup(key));
   return { probability: expanded, total: probability, used, ages };
+}
+
+/** One event's model probability in a case, with the field values and age it used. */
+export function evaluateEvent(study: Study, i: number, c: Case, lookup: ParameterValues = studyValues(study)): { probability: number; fields: Record<string, number>; age: number | undefined } {
+  const e = study.events[i]!;
+  const fields: Record<string, number> = {};
+  for (const field of Object.keys(e.fields)) fields[field] = fieldValue(e, field, c, lookup)!;
+  const age = ageInCase(study, e, c);
+  const on = c.switches.get(e.id) ?? e.on;
+  const q = modelProbability(e.model, fields, {
+    ...(age !== undefined ? { ageYears: age } : {}),
+    exerciseBasis: study.settings.exercise_basis,
+    ...(on !== undefined ? { on } : {}),
+  });
+  if (!(q >= 0 && q <= 1)) throw new EventProbabilityError(e, q, fields);
+  return { probability: q, fields, age };
+}
+
+/** Indices of the events that read an override key (a parameter key, or an event's own `event.field`). */
+export function eventsReading(study: Study, key: string): readonly number[] {
+  return readersOf(study).get(key) ?? [];
 }

@@ -6,7 +6,7 @@
  * equal, the Poisson-binomial (the distribution of a sum of independent Bernoulli variables with
  * unequal probabilities) when they are not. The gap between the two is what sharing costs.
  */
-import { countDistribution, probability } from '../logic/index.js';
+import { countDistribution, probabilityPair } from '../logic/index.js';
 import type { CompiledLogic } from '../logic/index.js';
 import type { CountSet, Study } from '../study/types.js';
 import { logicNode } from './logic-node.js';
@@ -15,15 +15,18 @@ import type { GateCountResult } from './results.js';
 
 /**
  * dist[j] = P(exactly j of independent events with probabilities p occur), j = 0..p.length, by the
- * usual one-event-at-a-time recursion dist'[j] = dist[j]·(1 − p) + dist[j − 1]·p (sums of
- * non-negative terms only, so no cancellation). With equal p it is the binomial distribution.
+ * usual one-event-at-a-time recursion dist'[j] = dist[j]·q + dist[j − 1]·p (sums of non-negative
+ * terms only, so no cancellation). With equal p it is the binomial distribution. `q` are the
+ * complements 1 − p computed without subtraction (from the diagram); without it 1 − p is formed,
+ * which loses digits for marginals near 1 (1 − 0.99999999 keeps 8 digits of 16).
  */
-export function poissonBinomial(p: readonly number[]): number[] {
+export function poissonBinomial(p: readonly number[], q?: readonly number[]): number[] {
   const dist = new Array<number>(p.length + 1).fill(0);
   dist[0] = 1;
   p.forEach((pi, i) => {
-    for (let j = i + 1; j >= 1; j--) dist[j] = dist[j]! * (1 - pi) + dist[j - 1]! * pi;
-    dist[0] = dist[0]! * (1 - pi);
+    const qi = q ? q[i]! : 1 - pi;
+    for (let j = i + 1; j >= 1; j--) dist[j] = dist[j]! * qi + dist[j - 1]! * pi;
+    dist[0] = dist[0]! * qi;
   });
   return dist;
 }
@@ -47,8 +50,9 @@ export function gateCount(study: Study, model: LogicModel, compiled: CompiledLog
   const resolved = set.of.map((id) => ({ id, ...logicNode(study, model, compiled, id) }));
   const roots = resolved.map((r) => r.node);
   const exact = Array.from(countDistribution(m, roots, p));
-  const marginals = roots.map((r) => probability(m, r, p));
-  const independent = poissonBinomial(marginals);
+  const pairs = roots.map((r) => probabilityPair(m, r, p));
+  const marginals = pairs.map((x) => x.p);
+  const independent = poissonBinomial(marginals, pairs.map((x) => x.q));
   const hi = Math.max(...marginals);
   const lo = Math.min(...marginals);
   const mean = (d: number[]) => d.reduce((s, x, j) => s + j * x, 0);

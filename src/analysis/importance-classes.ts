@@ -16,9 +16,11 @@
  * A shared event that spans two classes belongs to neither.
  * P1 and P0 are exact conditional probabilities on the decision diagram: P is multilinear in the
  * event probabilities, so setting the class's probabilities to 1 (or 0) in one pass is conditioning
- * on them. FV is formed as a difference, so its absolute rounding error is about 1e-16 —
- * negligible beside the three figures printed unless FV itself is that small. A ratio with a zero denominator is Infinity, as for
- * single events.
+ * on them. FV's numerator P − P0 is not formed by that subtraction (which loses a small class's
+ * share of a large P entirely) but, like the per-event FV, from local differences on the diagram
+ * (ProbabilityEvaluator.groupReduction). In a coherent tree P0 ≤ P ≤ P1, so Birnbaum ≥ 0,
+ * 0 ≤ FV ≤ 1 and RAW, RRW ≥ 1 hold exactly and are clamped against rounding. A ratio with a zero
+ * denominator is Infinity, as for single events.
  */
 import { ProbabilityEvaluator } from '../logic/index.js';
 import type { Study } from '../study/types.js';
@@ -51,7 +53,7 @@ function classVariables(study: Study, events: number[]): number[] {
  * Class importance for every top (outer array in study order of tops), ranked by FV (ties in
  * class order). Classes that cannot change a top (P1 = P0) are left out of its list.
  */
-export function classImportance(study: Study, evaluator: ProbabilityEvaluator, p: Float64Array): ClassImportance[][] {
+export function classImportance(study: Study, evaluator: ProbabilityEvaluator, p: Float64Array, coherent = false): ClassImportance[][] {
   const members = classMembers(study);
   const P = evaluator.evaluate(p);
   const perTop: ClassImportance[][] = study.tops.map(() => []);
@@ -63,17 +65,27 @@ export function classImportance(study: Study, evaluator: ProbabilityEvaluator, p
     for (const i of vars) pinned[i] = 0;
     const p0 = evaluator.evaluate(pinned);
     for (const i of vars) pinned[i] = p[i]!;
+    const inClass = new Uint8Array(p.length);
+    for (const i of vars) inClass[i] = 1;
+    const reduction = evaluator.groupReduction(p, inClass);
     study.tops.forEach((_, t) => {
       const base = P[t]!;
-      const one = p1[t]!;
-      const zero = p0[t]!;
+      let one = p1[t]!;
+      let zero = p0[t]!;
       if (one === zero) return;
+      let fv = base > 0 ? reduction[t]! / base : 0;
+      if (coherent) {
+        // P0 ≤ P ≤ P1 in a coherent tree: only rounding can say otherwise.
+        zero = Math.min(zero, base);
+        one = Math.max(one, base);
+        fv = Math.min(1, Math.max(0, fv));
+      }
       perTop[t]!.push({
         class: cls,
         events: events.map((i) => study.events[i]!.id),
         p_failed: one,
         p_working: zero,
-        fussell_vesely: base > 0 ? (base - zero) / base : 0,
+        fussell_vesely: fv,
         birnbaum: one - zero,
         raw: base > 0 ? one / base : Infinity,
         rrw: zero > 0 ? base / zero : Infinity,

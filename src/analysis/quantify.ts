@@ -103,6 +103,27 @@ export function boundTops(study: Study, model: LogicModel, switches: ReadonlyMap
   });
 }
 
+/** One `cut-sets-capped` warning per top whose cut sets the cap cut short. */
+export function cappedWarnings(tops: readonly TopResult[]): { code: string; message: string }[] {
+  return tops.flatMap((top) => {
+    const s = top.cut_set_summary;
+    if (!s.capped) return [];
+    const atMost = s.capped_exact ? '' : 'at most ';
+    return [
+      {
+        code: CAPPED_WARNING,
+        message:
+          `top '${top.id}': only the ${s.listed.toLocaleString('en-US')} most probable cut sets are listed (settings.max_cut_sets); ` +
+          `${atMost}${s.capped.toLocaleString('en-US')} more at or above the cutoff were left out, with a total probability of ${atMost}${(s.capped_probability ?? 0).toPrecision(3)}. ` +
+          'The exact top probability and the importance measures include them (they come from the decision diagram).',
+      },
+    ];
+  });
+}
+
+/** The warning code of a top whose cut-set list was cut short by settings.max_cut_sets. */
+export const CAPPED_WARNING = 'cut-sets-capped';
+
 /** The results warning that says the numbers are bounds, and what was left out. */
 export function boundWarning(study: Study): { code: string; message: string } {
   return {
@@ -134,14 +155,19 @@ export function quantifyTops(study: Study, model: LogicModel, compiled: Compiled
   return study.tops.map((top, t) => {
     const root = compiled.gateRoots[model.topGates[t]!]!;
     const exact = probability(compiled.manager, root, p);
-    const mcs = minimalCutSets(compiled.manager, root, p, { cutoff: study.settings.cutoff, maxOrder: study.settings.max_order });
+    const mcs = minimalCutSets(compiled.manager, root, p, {
+      cutoff: study.settings.cutoff,
+      maxOrder: study.settings.max_order,
+      maxSets: study.settings.max_cut_sets,
+    });
     const bounds = cutSetBounds(mcs.sets);
     const cutSets: CutSet[] = mcs.sets.map((s) => ({
       events: s.vars.map((v) => ids[v]!),
       probability: s.probability,
       share: exact > 0 ? s.probability / exact : 0,
     }));
-    const imp = importance(compiled.manager, root, p);
+    // Coherence (no negation reaches the top) lets the measures be clamped to their exact ranges.
+    const imp = importance(compiled.manager, root, p, undefined, { coherent: mcs.coherent });
     const ranked: Importance[] = [];
     imp.birnbaum.forEach((b, v) => {
       // Variables past the study's events are common-cause events (never switches).
@@ -163,8 +189,14 @@ export function quantifyTops(study: Study, model: LogicModel, compiled: Compiled
       cutoff: study.settings.cutoff,
       max_order: study.settings.max_order,
       coherent: mcs.coherent,
+      max_cut_sets: study.settings.max_cut_sets,
+      capped: mcs.capped,
+      capped_probability: mcs.cappedProbability,
+      capped_exact: mcs.cappedExact,
     };
     if (mcs.truncatedProbability !== undefined) summary.truncated_probability = mcs.truncatedProbability;
+    const listed = ranked.filter((r) => r.birnbaum !== 0 || r.fussell_vesely !== 0);
+    const none = ranked.filter((r) => r.birnbaum === 0 && r.fussell_vesely === 0).map((r) => r.event);
     return {
       id: top.id,
       title: top.title,
@@ -172,7 +204,10 @@ export function quantifyTops(study: Study, model: LogicModel, compiled: Compiled
       probability: { exact, rare_event: bounds.rareEvent, mcub: bounds.mcub, basis: 'exact' },
       cut_sets: cutSets,
       cut_set_summary: summary,
-      importance: ranked.filter((r) => r.birnbaum !== 0 || r.fussell_vesely !== 0),
+      importance: listed,
+      ...(none.length > 0
+        ? { no_effect: { events: none, note: `${none.length === 1 ? 'this event has' : 'these events have'} zero importance: the top does not depend on ${none.length === 1 ? 'it' : 'them'}, so no change to ${none.length === 1 ? 'its' : 'their'} data can change it` } }
+        : {}),
       gate_probabilities: Object.fromEntries(gatesUnder(study, top.gate).map((id) => [id, gateP.get(id)!])),
       bdd_nodes: compiled.manager.size(root),
     };

@@ -38,6 +38,8 @@ export interface EventResult {
   total_probability?: number;
   /** Shared events only: the members whose common failure this event is. */
   common_cause_members?: string[];
+  /** Set when the event's age lies beyond the oldest life (failed or suspended) in the data behind its fitted parameters. */
+  extrapolated?: { fit: string; age_years: number; data_max_years: number };
 }
 
 export interface ParameterResult {
@@ -94,8 +96,22 @@ export interface TopResult {
     cutoff: number;
     max_order: number;
     coherent: boolean;
+    /** The cap on cut sets kept per top (settings.max_cut_sets). */
+    max_cut_sets?: number;
+    /**
+     * Cut sets that met the cutoff and the order limit but were left out by the cap, and their
+     * summed probability: exact when `capped_exact`, otherwise upper bounds. 0 when none was.
+     */
+    capped?: number;
+    capped_probability?: number;
+    capped_exact?: boolean;
   };
   importance?: Importance[];
+  /**
+   * Basic events left out of `importance` because every measure is zero: the top does not depend
+   * on them (Birnbaum 0), so no change to their data can change it; `note` says so in words.
+   */
+  no_effect?: { events: string[]; note: string };
   /** Importance of each component class (all its events together), ranked by FV; see importance-classes.ts. */
   class_importance?: ClassImportance[];
   /** Gate id → probability of that gate's output, for the logic diagrams (optional; the report shows "—" without it). */
@@ -124,10 +140,22 @@ export interface ClassImportance {
 export interface SensitivityResult {
   top: string;
   /**
-   * One parameter at a time, low and high (its range, else value ÷/× settings.sensitivity_factor,
-   * probabilities capped at 1): tornado data, sorted by |swing|, swing = high − low (top probabilities).
+   * One parameter at a time, low and high (its stated range, else a fitted shape's or scale's fit
+   * bounds, else value ÷/× settings.sensitivity_factor, probabilities capped at 1): tornado data, sorted by |swing|, swing = high − low (top probabilities).
    */
-  tornado: { key: string; low_value: number; high_value: number; low: number; high: number; base: number; swing: number }[];
+  tornado: {
+    key: string;
+    low_value: number;
+    high_value: number;
+    low: number;
+    high: number;
+    base: number;
+    swing: number;
+    /** Where the range came from: the study's `range:`, the life-data fit's bounds, or the default factor. */
+    range_source: 'stated' | 'fit' | 'default-factor';
+    /** In words, for the appendix: "stated range", "fit bounds (each one-sided 90 %)", "default factor ×/÷ 3". */
+    range_basis: string;
+  }[];
   /** Parameters left out because an end of their range fell outside the parameter's domain, and why. */
   skipped: { key: string; reason: string }[];
   /**

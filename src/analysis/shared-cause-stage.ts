@@ -58,6 +58,20 @@ function sharedCauses(ctx: AnalysisContext): Partial<Results> {
   return out;
 }
 
+/** The `ccf-unequal-totals` warning of one group, or undefined when its members are alike (shared by `run` and `check`). */
+export function unequalTotalsWarning(g: { id: string; at: { file: string; line: number } }, totals: readonly number[], reference: number): Results['warnings'][number] | undefined {
+  const hi = Math.max(...totals);
+  const lo = Math.min(...totals);
+  if (!(hi - lo > UNEQUAL * hi)) return undefined;
+  return {
+    code: 'ccf-unequal-totals',
+    message:
+      `common-cause group '${g.id}': its members' own probabilities differ (${lo.toExponential(2)} to ${hi.toExponential(2)}); ` +
+      `NUREG/CR-5485 assumes like members. The shared events use their mean, ${reference.toExponential(2)}, and each independent part the member's own value.`,
+    at: { file: g.at.file, line: g.at.line },
+  };
+}
+
 function commonCauseResults(ctx: AnalysisContext): { groups: CommonCauseResult[]; events: EventResult[]; warnings: Results['warnings'] } {
   const { study, model, base } = ctx;
   const expansion = model.commonCause;
@@ -68,18 +82,9 @@ function commonCauseResults(ctx: AnalysisContext): { groups: CommonCauseResult[]
   const groups = expansion.groups.map((layout): CommonCauseResult => {
     const g = layout.group;
     const nums = expansion.numbers(layout, base.total, value);
-    const hi = Math.max(...nums.totals);
-    const lo = Math.min(...nums.totals);
-    const unequal = hi - lo > UNEQUAL * hi;
-    if (unequal) {
-      warnings.push({
-        code: 'ccf-unequal-totals',
-        message:
-          `common-cause group '${g.id}': its members' own probabilities differ (${lo.toExponential(2)} to ${hi.toExponential(2)}); ` +
-          `NUREG/CR-5485 assumes like members. The shared events use their mean, ${nums.reference.toExponential(2)}, and each independent part the member's own value.`,
-        at: { file: g.at.file, line: g.at.line },
-      });
-    }
+    const warning = unequalTotalsWarning(g, nums.totals, nums.reference);
+    if (warning) warnings.push(warning);
+    const unequal = warning !== undefined;
     layout.members.forEach((i, k) => byId.set(study.events[i]!.id, { group: g.id, total: nums.totals[k]! }));
     const shared = layout.shared.map((s) => ({ id: s.id, members: s.members.map((i) => study.events[i]!.id), probability: base.probability[s.variable]! }));
     for (const s of shared) {

@@ -12,6 +12,7 @@ import type { Stage } from './analyze.js';
 import { baseCase } from './case.js';
 import { CaseQuantifier } from './case-quantifier.js';
 import { commonCauseOf } from './common-cause.js';
+import { notSampledWarning } from './input-warnings.js';
 import { parametersSampled } from './event-plan.js';
 import { derivedRecipe, sectionValue, type DerivedRecipe } from './outcome-quantities.js';
 import type { QuantityUncertainty, Results, UncertaintyResult } from './results.js';
@@ -187,13 +188,7 @@ export const uncertaintyStage: Stage = (ctx) => {
   const outcomes = u.run ? outcomeUncertainty(u.run, ctx.results) : [];
   if (outcomes.length > 0) out.outcome_uncertainty = outcomes;
   const warnings: Results['warnings'] = [];
-  if (u.held.length > 0) {
-    const byKey = new Map(study.parameters.map((p) => [p.key, p]));
-    for (const h of u.held) {
-      const at = byKey.get(h.key)!.at;
-      warnings.push({ code: 'uncertainty-not-sampled', message: `the uncertainty of '${h.key}' is not sampled: ${h.reason}`, at: { file: at.file, line: at.line } });
-    }
-  }
+  for (const h of u.held) warnings.push(notSampledWarning(study, h));
   if (u.run && u.run.clippedTrials > 0) warnings.push(clippedWarning(study, u.run));
   if (warnings.length > 0) out.warnings = [...ctx.results.warnings, ...warnings];
   return out;

@@ -16,7 +16,7 @@ const spec: CommandSpec = {
     method: { type: 'string', value: 'M', help: 'mle (maximum likelihood, default) or rank (median-rank regression)' },
     location: { type: 'boolean', help: 'also fit a failure-free time (three-parameter Weibull)' },
     confidence: { type: 'string', value: 'P', help: 'one-sided level of each bound, 0.5–0.999 (default 0.9)' },
-    'life-unit': { type: 'string', value: 'UNIT', help: 'unit of bare life numbers, e.g. years or h (default: as given)' },
+    'life-unit': { type: 'string', value: 'UNIT', help: 'unit of bare life numbers, e.g. years or h (needed when neither the lives nor the header give one)' },
     group: { type: 'string', value: 'G', help: "fit only the rows of this group (the 'group' column)" },
     json: { type: 'boolean', help: 'print the fit as JSON' },
   },
@@ -39,7 +39,7 @@ const run: Command = async (argv, io) => {
   if (unit !== undefined && unitInYears(unit) === undefined) throw new StudyError(`unknown life unit '${unit}'`, undefined, 'years, months, weeks, days or h');
   if (!existsSync(file) || !statSync(file).isFile()) throw new StudyError(`file not found: ${file}`, undefined, 'the path of a CSV file of life records');
   if (statSync(file).size > MAX_FILE_BYTES) throw new StudyError(`${file} is larger than a life-record file may be`, undefined, `a file under ${MAX_FILE_BYTES / 1048576} MiB`);
-  const records = parseLifeData(readFileSync(file, 'utf8'), basename(file), unit ? { lifeUnit: unit } : {});
+  const records = parseLifeData(readFileSync(file, 'utf8'), basename(file), { ...(unit ? { lifeUnit: unit } : {}), unitOption: '`--life-unit h` (or years, days…)' });
   const data = fitData(records, args.values.group as string | undefined);
   let fit;
   try {
@@ -48,7 +48,7 @@ const run: Command = async (argv, io) => {
     if (err instanceof FitError) throw new StudyError(`${basename(file)}: ${err.message}`, undefined, err.hint ?? 'life records with enough failures to fit');
     throw err;
   }
-  io.stdout(args.values.json ? JSON.stringify(fit, null, 2) + '\n' : formatFit(fit, unit ? 'years' : undefined));
+  io.stdout(args.values.json ? JSON.stringify(fit, null, 2) + '\n' : formatFit(fit, 'years'));
   return EXIT.ok;
 };
 

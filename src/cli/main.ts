@@ -3,11 +3,13 @@
  * Input problems (StudyError) print as `file:line:col: message` with what would be right, exit 2,
  * never a stack trace. Anything else is our fault: exit 1, one line, the stack only with FAULTBOOK_DEBUG=1.
  */
+import { suggest } from '../study/check-logic.js';
 import { StudyError, StudyErrors } from '../study/errors.js';
 import { toolVersion } from '../package.js';
 import { EXIT, type Command, type Io } from './io.js';
 import { commands } from './commands.js';
 import { OutputWriteError } from './outputs.js';
+import { terminalIo } from './terminal.js';
 
 const USAGE = `faultbook ${toolVersion} — failure-probability studies to a sourced, reproducible appendix
 
@@ -22,7 +24,9 @@ Run 'faultbook <command> --help' for a command's options.
 Exit codes: 0 done, 2 the study or the arguments are wrong, 3 verification found a difference, 1 anything else.
 `;
 
-export async function main(argv: string[], io: Io): Promise<number> {
+export async function main(argv: string[], rawIo: Io): Promise<number> {
+  // The one place terminal output is made safe: every command prints through this Io.
+  const io = terminalIo(rawIo);
   const [name, ...rest] = argv;
   if (!name || name === '--help' || name === '-h' || name === 'help') {
     io.stdout(USAGE);
@@ -34,7 +38,7 @@ export async function main(argv: string[], io: Io): Promise<number> {
   }
   const command = commands[name];
   if (!command) {
-    io.stderr(`faultbook: unknown command '${name}'\n  expected: one of ${Object.keys(commands).join(', ')}\n`);
+    io.stderr(`faultbook: unknown command '${name}'\n  expected: ${suggest(name, Object.keys(commands), `one of ${Object.keys(commands).join(', ')}`)}\n`);
     return EXIT.badInput;
   }
   return runGuarded(command.run, rest, io);

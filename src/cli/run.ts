@@ -76,7 +76,7 @@ const run: Command = async (argv, io) => {
   }
   // Warnings the analysis adds (e.g. top probabilities that are bounds, not exact) reach the terminal too.
   const seen = new Set(study.warnings.map((w) => `${w.code}\u0000${w.message}`));
-  for (const w of results.warnings) if (!seen.has(`${w.code}\u0000${w.message}`)) io.stderr(`warning: ${w.message} [${w.code}]\n`);
+  printWarnings(results.warnings.filter((w) => !seen.has(`${w.code}\u0000${w.message}`)), io);
 
   const made = await renderOutputs(results, study.files, { paper, formats });
   const files: OutputFile[] = [...made].map(([name, data]) => ({ name, data }));

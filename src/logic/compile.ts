@@ -14,6 +14,8 @@ export interface CompileOptions {
   maxNodes?: number;
   /** Variables held at a constant value (house events): variable index → value. */
   fixed?: ReadonlyMap<number, boolean>;
+  /** Garbage collection during the build (BddManagerOptions.collection); default `auto`. */
+  collection?: 'auto' | 'always' | 'never';
 }
 
 export interface CompiledLogic {
@@ -22,7 +24,7 @@ export interface CompiledLogic {
   readonly gateRoots: Int32Array;
   /** order[level] = variable index. */
   readonly order: number[];
-  /** Internal nodes the manager made while compiling. */
+  /** Internal nodes the manager holds after compiling: the live ones, unless collection was off. */
   readonly nodeCount: number;
   /** True when no gate is a not-gate, so every gate's function is monotone (coherent). */
   readonly negationFree: boolean;
@@ -37,7 +39,10 @@ export function compile(graph: LogicGraph, options: CompileOptions = {}): Compil
   if (order.length !== nv) throw new LogicGraphError(`order has ${order.length} entries for ${nv} variables`);
   let manager: BddManager;
   try {
-    manager = new BddManager(order, options.maxNodes === undefined ? {} : { maxNodes: options.maxNodes });
+    manager = new BddManager(order, {
+      ...(options.maxNodes === undefined ? {} : { maxNodes: options.maxNodes }),
+      ...(options.collection === undefined ? {} : { collection: options.collection }),
+    });
   } catch (e) {
     if (e instanceof RangeError) throw new LogicGraphError(e.message);
     throw e;
@@ -67,7 +72,28 @@ export function compile(graph: LogicGraph, options: CompileOptions = {}): Compil
     return gateRoots[ref.index]!;
   };
 
-  // Post-order over the gate graph with an explicit stack (0 = new, 1 = on the path, 2 = built).
+  // Every id held across manager calls is in varNode or gateRoots, so the manager may collect
+  // garbage between and inside gate builds and renumber both arrays in place.
+  manager.collecting([varNode, gateRoots], () => {
+    buildAll(graph, manager, gateRoots, refNode);
+    // One last collection: the table then holds the live diagrams only.
+    if (manager.collectionMode !== 'never') manager.collect();
+  });
+
+  return {
+    manager,
+    gateRoots,
+    order,
+    nodeCount: manager.nodeCount,
+    negationFree: graph.gates.every((g) => g.op !== 'not'),
+    node: (ref: NodeRef) => refNode(ref, 'reference'),
+  };
+}
+
+/** Builds every gate after its inputs: a post-order over the gate graph, with a safe point after each gate. */
+function buildAll(graph: LogicGraph, manager: BddManager, gateRoots: Int32Array, refNode: (ref: NodeRef, from: string) => number): void {
+  const ng = graph.gates.length;
+  // Post-order with an explicit stack (0 = new, 1 = on the path, 2 = built).
   const state = new Uint8Array(ng);
   for (let start = 0; start < ng; start++) {
     if (state[start] === 2) continue;
@@ -100,17 +126,9 @@ export function compile(graph: LogicGraph, options: CompileOptions = {}): Compil
       gateRoots[g] = buildGate(manager, gate.id, gate.op, gate.k, gate.inputs.map((r) => refNode(r, gate.id)));
       state[g] = 2;
       stack.pop();
+      manager.safePoint();
     }
   }
-
-  return {
-    manager,
-    gateRoots,
-    order,
-    nodeCount: manager.nodeCount,
-    negationFree: graph.gates.every((g) => g.op !== 'not'),
-    node: (ref: NodeRef) => refNode(ref, 'reference'),
-  };
 }
 
 function buildGate(m: BddManager, id: string, op: string, k: number | undefined, inputs: number[]): number {

@@ -54,6 +54,12 @@ export interface CutSetOptions {
   /** Search steps allowed for counting what was dropped (default 100000). */
   truncationBudget?: number;
   /**
+   * Keep at most this many sets, the most probable (default: no cap). Memory stays bounded by the
+   * cap: the kept sets live in a heap, and once it is full its least probable set becomes the
+   * search's cutoff, so branches that cannot beat it are never entered.
+   */
+  maxSets?: number;
+  /**
    * The caller knows the function is monotone, so the relaxation need not be built. Wrong use
    * gives wrong sets; leave unset when unsure (the manager already skips it when it never used
    * negation, see BddManager.everyNodeMonotone).
@@ -72,6 +78,14 @@ export interface CutSetResult {
   truncatedExact: boolean;
   /** False when the function is not monotone and the sets are those of its monotone relaxation. */
   coherent: boolean;
+  /**
+   * Sets that met the cutoff and the order limit but were left out by `maxSets`: how many and
+   * their summed probability, exact when `cappedExact`, otherwise upper bounds (each pruned branch
+   * counted as all its paths to true, see SearchTables.pathSum). Zero when nothing was capped.
+   */
+  capped: number;
+  cappedProbability: number;
+  cappedExact: boolean;
 }
 
 /**
@@ -128,50 +142,147 @@ export function minimalCutSets(
   const tables = new SearchTables(m, g, p, Math.min(MAX_ROWS, Math.min(maxOrder, m.varCount) + 1));
   const search = new CutSetSearch(m, tables, p, Math.min(maxOrder, m.varCount), cutoff);
   const counter = new CutSetSearch(m, tables, p, Infinity, 0);
-  const kept: CutSet[] = [];
+  const maxSets = options.maxSets ?? Infinity;
+  if (!(maxSets >= 1)) throw new RangeError('maxSets must be ≥ 1');
+  const kept = new WorstFirstHeap();
   let truncated = 0;
   const dropped = new CompensatedSum();
   let exact = true;
   let budget = options.truncationBudget ?? 100_000;
+  // Capped sets: counted one by one where they were seen, bounded by path sums where they were not.
+  let cappedCount = 0;
+  const cappedProb = new CompensatedSum();
+  let cappedExact = true;
+  const meetsLimits = (vars: readonly number[], prob: number) => prob >= cutoff && vars.length <= maxOrder;
 
   search.run(
     { node: g, vars: [], constraints: [], prob: 1 },
     (vars) => {
       const prob = setProbability(vars, p);
       // The bound used a different product order; the kept/dropped decision uses this one.
-      if (prob >= cutoff) kept.push({ vars, probability: prob });
-      else {
+      if (prob < cutoff) {
         truncated++;
         dropped.add(prob);
+        return;
       }
+      const set = { vars, probability: prob };
+      if (kept.size < maxSets) kept.push(set);
+      else if (compareCutSets(set, kept.worst()!) < 0) {
+        const out = kept.replaceWorst(set);
+        cappedCount++;
+        cappedProb.add(out.probability);
+      } else {
+        cappedCount++;
+        cappedProb.add(prob);
+      }
+      // A full heap: nothing at or below its least probable set can get in any more.
+      if (kept.size >= maxSets) search.raiseFloor(kept.worst()!.probability * (1 + CAP_TIE_TOLERANCE));
     },
     (branch) => {
       if (budget > 0) {
+        let count = 0;
+        const prob = new CompensatedSum();
         const left = counter.run(
           branch.materialise(),
           (vars) => {
-            truncated++;
-            dropped.add(setProbability(vars, p));
+            const pr = setProbability(vars, p);
+            if (branch.byCap && meetsLimits(vars, pr)) {
+              count++;
+              prob.add(pr);
+            } else {
+              truncated++;
+              dropped.add(pr);
+            }
           },
           null,
           budget,
         );
-        if (left < 0) {
-          exact = false;
-          budget = 0;
-        } else budget = left;
-        return;
+        if (left >= 0) {
+          cappedCount += count;
+          cappedProb.add(prob.value());
+          budget = left;
+          return;
+        }
+        exact = false;
+        budget = 0;
       }
       // Budget spent: count one set where one is certain to exist, so the count stays a lower bound.
       exact = false;
-      if (branch.certainlyHoldsMinimalSet()) truncated++;
+      if (branch.byCap) {
+        cappedExact = false;
+        const bound = branch.pathBound();
+        cappedCount += bound.count;
+        cappedProb.add(bound.probability);
+      } else if (branch.certainlyHoldsMinimalSet()) truncated++;
     },
   );
 
-  kept.sort(compareCutSets);
-  const result: CutSetResult = { sets: kept, truncated, truncatedExact: exact, coherent: g === root };
+  const sets = kept.drain().sort(compareCutSets);
+  const result: CutSetResult = {
+    sets,
+    truncated,
+    truncatedExact: exact,
+    coherent: g === root,
+    capped: cappedCount,
+    cappedProbability: cappedProb.value(),
+    cappedExact,
+  };
   if (exact) result.truncatedProbability = dropped.value();
   return result;
+}
+
+/**
+ * Once the cap is reached, a branch must promise a set more probable than the least probable kept
+ * one by this relative margin to be searched. Without a margin a study of many equally probable
+ * sets (identical trains) would walk every tie only to reject it; with it, a set within one part in
+ * 10^9 of the last kept one may be counted as capped in its favour.
+ */
+const CAP_TIE_TOLERANCE = 1e-9;
+
+/**
+ * The kept sets, least probable (then last in variable order) on top, so the one to give up when
+ * a better set arrives is at hand: a binary heap on compareCutSets, reversed.
+ */
+class WorstFirstHeap {
+  private readonly items: CutSet[] = [];
+  get size(): number {
+    return this.items.length;
+  }
+  worst(): CutSet | undefined {
+    return this.items[0];
+  }
+  push(set: CutSet): void {
+    const a = this.items;
+    a.push(set);
+    let i = a.length - 1;
+    while (i > 0) {
+      const up = (i - 1) >> 1;
+      if (compareCutSets(a[i]!, a[up]!) <= 0) break;
+      [a[i], a[up]] = [a[up]!, a[i]!];
+      i = up;
+    }
+  }
+  /** Puts `set` in place of the worst and returns the worst. */
+  replaceWorst(set: CutSet): CutSet {
+    const a = this.items;
+    const out = a[0]!;
+    a[0] = set;
+    let i = 0;
+    for (;;) {
+      const l = 2 * i + 1;
+      const r = l + 1;
+      let w = i;
+      if (l < a.length && compareCutSets(a[l]!, a[w]!) > 0) w = l;
+      if (r < a.length && compareCutSets(a[r]!, a[w]!) > 0) w = r;
+      if (w === i) break;
+      [a[i], a[w]] = [a[w]!, a[i]!];
+      i = w;
+    }
+    return out;
+  }
+  drain(): CutSet[] {
+    return this.items.splice(0);
+  }
 }
 
 function setProbability(vars: readonly number[], p: ArrayLike<number>): number {
@@ -205,6 +316,10 @@ interface PrunedBranch {
   materialise(): Branch;
   /** True when it certainly holds a minimal cut set (no open constraint left). */
   certainlyHoldsMinimalSet(): boolean;
+  /** True when only the cap's raised floor cut it off: it met the caller's cutoff and order limit. */
+  byCap: boolean;
+  /** Upper bounds on the number and summed probability of the sets within the order limit it holds. */
+  pathBound(): { count: number; probability: number };
 }
 
 /** The reusable PrunedBranch handed out by a search; valid only inside the callback. */
@@ -214,7 +329,12 @@ class PrunedView implements PrunedBranch {
   extraVar = -1;
   count = 0;
   prob = 0;
+  order = 0;
+  byCap = false;
   constructor(private readonly search: CutSetSearch) {}
+  pathBound(): { count: number; probability: number } {
+    return this.search.branchPathBound(this);
+  }
   materialise(): Branch {
     return this.search.materialiseBranch(this);
   }
@@ -237,6 +357,16 @@ class SearchTables {
   readonly bound: Float64Array;
   /** Best probability of any path to true. */
   readonly boundAny: Float64Array;
+  /**
+   * sum[slot·K + k]: Σ over paths to true with at most k high edges of the product of their high
+   * variables' probabilities (k < K); sumAny without the limit; count/countAny the number of such
+   * paths. Distinct paths name distinct sets, so these bound the count and the summed probability
+   * of the minimal cut sets below a node.
+   */
+  readonly sum: Float64Array;
+  readonly sumAny: Float64Array;
+  readonly count: Float64Array;
+  readonly countAny: Float64Array;
 
   constructor(m: BddManager, root: number, p: ArrayLike<number>, rows: number) {
     const { nodes: nd, order } = m.arrays();
@@ -250,11 +380,17 @@ class SearchTables {
     this.minOnes = new Int32Array(n + 2);
     this.bound = new Float64Array((n + 2) * K);
     this.boundAny = new Float64Array(n + 2);
+    this.sum = new Float64Array((n + 2) * K);
+    this.sumAny = new Float64Array(n + 2);
+    this.count = new Float64Array((n + 2) * K);
+    this.countAny = new Float64Array(n + 2);
     this.zeroValue[1] = T;
     this.minOnes[0] = 0x3fffffff;
-    for (let k = 0; k < K; k++) this.bound[K + k] = 1;
-    this.boundAny[1] = 1;
+    for (let k = 0; k < K; k++) this.bound[K + k] = this.sum[K + k] = this.count[K + k] = 1;
+    this.boundAny[1] = this.sumAny[1] = this.countAny[1] = 1;
     const b = this.bound;
+    const sum = this.sum;
+    const count = this.count;
     for (let i = 0; i < n; i++) {
       const node = nodes[i]!;
       const s = i + 2;
@@ -268,6 +404,14 @@ class SearchTables {
       this.boundAny[s] = Math.max(this.boundAny[ls]!, pv * this.boundAny[hs]!);
       b[s * K] = b[ls * K]!;
       for (let k = 1; k < K; k++) b[s * K + k] = Math.max(b[ls * K + k]!, pv * b[hs * K + k - 1]!);
+      this.sumAny[s] = this.sumAny[ls]! + pv * this.sumAny[hs]!;
+      this.countAny[s] = this.countAny[ls]! + this.countAny[hs]!;
+      sum[s * K] = sum[ls * K]!;
+      count[s * K] = count[ls * K]!;
+      for (let k = 1; k < K; k++) {
+        sum[s * K + k] = sum[ls * K + k]! + pv * sum[hs * K + k - 1]!;
+        count[s * K + k] = count[ls * K + k]! + count[hs * K + k - 1]!;
+      }
     }
   }
 }
@@ -283,7 +427,10 @@ class CutSetSearch {
   private readonly nd: Int32Array;
   private readonly order: Int32Array;
   private readonly terminalLevel: number;
-  private readonly slack: number;
+  /** The caller's cutoff, less a rounding margin. */
+  private readonly cutoffSlack: number;
+  /** The cutoff in force: the caller's, or higher once a cap is full (raiseFloor). */
+  private slack: number;
 
   private rec = new Int32Array(6 * 256); // node, order, varsHead, consStart, consCount, cellMark
   private recProb = new Float64Array(256);
@@ -312,7 +459,23 @@ class CutSetSearch {
     this.nd = a.nodes;
     this.order = a.order;
     this.terminalLevel = m.varCount;
-    this.slack = cutoff * (1 - 1e-12);
+    this.cutoffSlack = cutoff * (1 - 1e-12);
+    this.slack = this.cutoffSlack;
+  }
+
+  /** From now on, branches whose best set is below `floor` are cut off too (reported with byCap). */
+  raiseFloor(floor: number): void {
+    if (floor > this.slack) this.slack = floor;
+  }
+
+  /** For PrunedView: path-sum bounds of the branch within the order limit. */
+  branchPathBound(v: PrunedView): { count: number; probability: number } {
+    const t = this.t;
+    const s = t.slotOf[v.node]!;
+    const k = this.maxOrder - v.order;
+    if (v.node === F || k < 0) return { count: 0, probability: 0 };
+    if (k < t.rows) return { count: t.count[s * t.rows + k]!, probability: v.prob * t.sum[s * t.rows + k]! };
+    return { count: t.countAny[s]!, probability: v.prob * t.sumAny[s]! };
   }
 
   /** Best probability of a path to true from `node` with at most k high edges (an upper bound). */
@@ -403,8 +566,12 @@ class CutSetSearch {
   }
 
   /** Fills the reusable view of a pruned branch (its constraints are in `kid`) and reports it. */
-  private pruned(onPruned: (b: PrunedBranch) => void, node: number, head: number, extraVar: number, count: number, prob: number): void {
+  private pruned(onPruned: (b: PrunedBranch) => void, node: number, head: number, extraVar: number, count: number, prob: number, order: number): void {
     const view = this.view;
+    // Within the caller's limits, so only a raised floor can have cut it off.
+    view.byCap =
+      this.slack > this.cutoffSlack && order + this.t.minOnes[this.t.slotOf[node]!]! <= this.maxOrder && prob * this.best(node, this.maxOrder - order) >= this.cutoffSlack;
+    view.order = order;
     view.node = node;
     view.head = head;
     view.extraVar = extraVar;
@@ -446,7 +613,6 @@ class CutSetSearch {
     const minOnes = this.t.minOnes;
     const slotOf = this.t.slotOf;
     const maxOrder = this.maxOrder;
-    const slack = this.slack;
 
     while (this.sp > 0) {
       if (budget !== Infinity && budget-- <= 0) return -1;
@@ -487,10 +653,10 @@ class CutSetSearch {
       }
       if (lo !== F) kid[k++] = lo;
       const hiProb = prob * pv;
-      if (order + 1 + minOnes[slotOf[hi]!]! <= maxOrder && hiProb * this.best(hi, maxOrder - order - 1) >= slack) {
+      if (order + 1 + minOnes[slotOf[hi]!]! <= maxOrder && hiProb * this.best(hi, maxOrder - order - 1) >= this.slack) {
         this.push(hi, order + 1, this.newCell(v, head), kid, k, hiProb);
       } else if (onPruned) {
-        this.pruned(onPruned, hi, head, v, k, hiProb);
+        this.pruned(onPruned, hi, head, v, k, hiProb, order + 1);
       }
 
       // Low edge: v stays false.
@@ -500,10 +666,10 @@ class CutSetSearch {
         const c = cons[i]!;
         kid[k++] = nd[c * NODE_STRIDE] === L ? nd[c * NODE_STRIDE + LOW]! : c;
       }
-      if (order + minOnes[slotOf[lo]!]! <= maxOrder && prob * this.best(lo, maxOrder - order) >= slack) {
+      if (order + minOnes[slotOf[lo]!]! <= maxOrder && prob * this.best(lo, maxOrder - order) >= this.slack) {
         this.push(lo, order, head, kid, k, prob);
       } else if (onPruned) {
-        this.pruned(onPruned, lo, head, -1, k, prob);
+        this.pruned(onPruned, lo, head, -1, k, prob, order);
       }
     }
     return budget;

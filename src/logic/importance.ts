@@ -42,7 +42,17 @@ export interface ImportanceResult {
   rrw: Float64Array;
 }
 
-export function importance(m: BddManager, root: number, p: ArrayLike<number>, q?: ArrayLike<number>): ImportanceResult {
+export interface ImportanceOptions {
+  /**
+   * The root is a coherent (monotone) function, so P0 ≤ P ≤ P1 and every measure has its coherent
+   * range: Birnbaum ≥ 0, 0 ≤ FV = criticality ≤ 1, RAW ≥ 1, RRW ≥ 1. Rounding can step outside
+   * (a Birnbaum of −1.7e-18, a RAW of 0.9999999999999998); with this set such values are clamped.
+   */
+  coherent?: boolean;
+}
+
+export function importance(m: BddManager, root: number, p: ArrayLike<number>, q?: ArrayLike<number>, options: ImportanceOptions = {}): ImportanceResult {
+  const coherent = options.coherent ?? false;
   const nv = m.varCount;
   const nodes = m.topological([root]);
   const n = nodes.length;
@@ -117,9 +127,15 @@ export function importance(m: BddManager, root: number, p: ArrayLike<number>, q?
       p1 = a1[v]! + s;
       p0 = a0[v]! + s;
     }
+    if (coherent) {
+      p1 = Math.max(p1, P);
+      p0 = Math.min(p0, P);
+      if (!(ib[v]! >= 0)) ib[v] = 0;
+    }
     out.conditionalTrue[v] = p1;
     out.conditionalFalse[v] = p0;
-    const fv = P > 0 ? (p[v]! * ib[v]!) / P : 0;
+    let fv = P > 0 ? (p[v]! * ib[v]!) / P : 0;
+    if (coherent && fv > 1) fv = 1;
     out.fussellVesely[v] = fv;
     out.criticality[v] = fv;
     out.raw[v] = P > 0 ? p1 / P : Infinity;

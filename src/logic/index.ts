@@ -15,5 +15,5 @@ export {
   type CutSetOptions,
   type CutSetResult,
 } from './cutsets.js';
-export { importance, type ImportanceResult } from './importance.js';
+export { importance, type ImportanceOptions, type ImportanceResult } from './importance.js';
 export { countDistribution } from './count.js';

@@ -12,7 +12,8 @@ export const HOURS_PER_YEAR = DAYS_PER_YEAR * 24;
 
 export type ParseResult<T> =
   | { ok: true; value: T; written: string }
-  | { ok: false; message: string; expected: string };
+  /** `bare`: the text was a number without a unit, which a duration or rate refuses. */
+  | { ok: false; message: string; expected: string; bare?: true };
 
 interface UnitDef {
   /** Length of one unit in years. */
@@ -40,8 +41,14 @@ export function unitInYears(name: string): number | undefined {
   return undefined;
 }
 
-const DURATION_EXPECTED = 'a duration such as "8 h", "3 days" or "0.5 year" (units: min, h, day, week, month, year; a bare number is years)';
-const RATE_EXPECTED = 'a rate such as "2e-3 /year", "1e-6 /h" or "0.5 per year" (a bare number is per year)';
+/** The table key of a unit spelling (`hours` → `h`), or undefined when unknown. */
+export function unitKey(name: string): DurationUnit | undefined {
+  const lower = name.toLowerCase();
+  return UNITS.find((u) => u.def.names.includes(lower))?.key as DurationUnit | undefined;
+}
+
+const DURATION_EXPECTED = 'a duration with its unit, such as "8 h", "3 days" or "0.5 year" (units: min, h, day, week, month, year)';
+const RATE_EXPECTED = 'a rate with its unit, such as "2e-3 /year", "1e-6 /h" or "0.5 per year"';
 const DATE_EXPECTED = 'an ISO date: "1994", "1994-05" or "2026-06-30"';
 
 /** A decimal number as JSON and YAML write it: optional sign, digits, fraction, exponent. */
@@ -54,16 +61,22 @@ function spell(input: string | number): string {
   return typeof input === 'number' ? String(input) : input.trim();
 }
 
+/** True when the text is a plain number with no unit (`10`, `2e-3`, `-4.5`). */
+export function isBareNumber(input: string | number): boolean {
+  return typeof input === 'number' || new RegExp(`^${NUMBER}$`).test(input.trim());
+}
+
 /**
- * A duration in years. A number is already years; text is a number and an optional unit
- * (`8 h`, `3 days`, `1 month`, `0.25 year`, `75 years`, `1e3 h`). The sign is kept (the caller
- * decides whether a negative duration is allowed).
+ * A duration in years from a number and its unit (`8 h`, `3 days`, `1 month`, `0.25 year`,
+ * `75 years`, `1e3 h`). A number without a unit is refused (`bare: true`): it once meant years, and
+ * a repair time meant in hours silently became years. The sign is kept (the caller decides whether
+ * a negative duration is allowed).
  */
 export function parseDuration(input: string | number): ParseResult<number> {
   const written = spell(input);
   if (typeof input === 'number') {
     if (!Number.isFinite(input)) return { ok: false, message: `${written} is not a finite duration`, expected: DURATION_EXPECTED };
-    return { ok: true, value: input, written };
+    return { ok: false, message: `${written} has no unit`, expected: DURATION_EXPECTED, bare: true };
   }
   if (written === '') return { ok: false, message: 'the duration is empty', expected: DURATION_EXPECTED };
   if (/[/]|\bper\b/i.test(written)) {
@@ -74,7 +87,7 @@ export function parseDuration(input: string | number): ParseResult<number> {
   const amount = Number(m[1]);
   if (!Number.isFinite(amount)) return { ok: false, message: `"${written}" is too large a number`, expected: DURATION_EXPECTED };
   const unit = m[2];
-  if (unit === undefined) return { ok: true, value: amount, written };
+  if (unit === undefined) return { ok: false, message: `${written} has no unit`, expected: DURATION_EXPECTED, bare: true };
   if (unit === 'm' || unit === 'M') {
     return { ok: false, message: `"${unit}" could mean minutes or months`, expected: `"${m[1]} min" or "${m[1]} month"` };
   }
@@ -84,14 +97,14 @@ export function parseDuration(input: string | number): ParseResult<number> {
 }
 
 /**
- * A rate per year. A number is already per year; text is a number and an optional `/unit` or
- * `per unit` (`2e-3 /year`, `1e-6 /h`, `0.5 per year`, `3 /day`, `0.1 /month`).
+ * A rate per year from a number and its `/unit` or `per unit` (`2e-3 /year`, `1e-6 /h`,
+ * `0.5 per year`, `3 /day`, `0.1 /month`). A number without a unit is refused (`bare: true`).
  */
 export function parseRate(input: string | number): ParseResult<number> {
   const written = spell(input);
   if (typeof input === 'number') {
     if (!Number.isFinite(input)) return { ok: false, message: `${written} is not a finite rate`, expected: RATE_EXPECTED };
-    return { ok: true, value: input, written };
+    return { ok: false, message: `${written} has no unit`, expected: RATE_EXPECTED, bare: true };
   }
   if (written === '') return { ok: false, message: 'the rate is empty', expected: RATE_EXPECTED };
   const m = RATE_RE.exec(written);
@@ -106,7 +119,7 @@ export function parseRate(input: string | number): ParseResult<number> {
   const amount = Number(m[1]);
   if (!Number.isFinite(amount)) return { ok: false, message: `"${written}" is too large a number`, expected: RATE_EXPECTED };
   const unit = m[2];
-  if (unit === undefined) return { ok: true, value: amount, written };
+  if (unit === undefined) return { ok: false, message: `${written} has no unit`, expected: RATE_EXPECTED, bare: true };
   if (unit === 'm' || unit === 'M') {
     return { ok: false, message: `"/${unit}" could mean per minute or per month`, expected: `"${m[1]} /min" or "${m[1]} /month"` };
   }

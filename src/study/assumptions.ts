@@ -7,9 +7,13 @@ import type { Assumption } from './types.js';
 
 const HEADING = /^##\s+(A\d+)\b[\s.:–—-]*(.*)$/;
 
+/** More assumptions than this do not fit a readable register (nor a PDF made in bounded time). */
+export const MAX_ASSUMPTIONS = 500;
+
 export function parseAssumptions(text: string, file: string): Assumption[] {
   const lines = text.split(/\r?\n/);
   const out: Assumption[] = [];
+  const ids = new Set<string>();
   let current: { a: Assumption; body: string[] } | undefined;
   const close = () => {
     if (current) {
@@ -22,9 +26,13 @@ export function parseAssumptions(text: string, file: string): Assumption[] {
     if (m) {
       close();
       const id = m[1]!;
-      if (out.some((a) => a.id === id)) {
+      if (ids.has(id)) {
         throw new StudyError(`assumption ${id} is defined twice`, { file, line: i + 1, col: 1 }, 'each assumption number once');
       }
+      if (ids.size >= MAX_ASSUMPTIONS) {
+        throw new StudyError(`more than ${MAX_ASSUMPTIONS} assumptions`, { file, line: i + 1, col: 1 }, `at most ${MAX_ASSUMPTIONS} numbered assumptions (group related ones under one number)`);
+      }
+      ids.add(id);
       current = { a: { id, title: m[2]!.trim() || id, body: '', at: { file, line: i + 1, col: 1 } }, body: [] };
     } else if (/^##\s/.test(line)) {
       throw new StudyError(`a second-level heading that is not an assumption number`, { file, line: i + 1, col: 1 }, "'## A1 Title', '## A2 Title', …");

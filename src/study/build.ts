@@ -4,8 +4,8 @@
  * (so one run reports as many as it can) and thrown together.
  */
 import { parseDate, yearsBetween } from '../reliability/units.js';
-import { ErrorCollector, StudyError } from './errors.js';
-import { checkLogic } from './check-logic.js';
+import { ErrorCollector, FollowOnError, StudyError } from './errors.js';
+import { checkLogic, suggest } from './check-logic.js';
 import { readSharedCauseSections } from './event-trees.js';
 import { fitProvenance, fittedValue } from './fits.js';
 import { lint } from './lint.js';
@@ -34,10 +34,14 @@ import type { YamlFile } from './yaml.js';
 export const DEFAULT_SETTINGS: Settings = {
   cutoff: 1e-12,
   max_order: 8,
+  max_cut_sets: 10_000,
   samples: 20000,
   seed: 20260630,
   horizon: 30,
-  max_nodes: 4_000_000,
+  // Live decision-diagram nodes: about 2 GB of node tables at ~32 bytes a node (node 16, unique
+  // table 4, visit stamp 4, computed cache 4, collection scratch 5); garbage is collected, so only
+  // the diagrams in use count (logic/bdd.ts).
+  max_nodes: 64_000_000,
   on_node_budget: 'stop',
   exercise_basis: 'end',
   sensitivity_factor: 2,
@@ -45,7 +49,7 @@ export const DEFAULT_SETTINGS: Settings = {
 };
 
 /** Runs one fit (the reader supplies it: fitting reads data files). */
-export type FitRunner = (fit: FitSpec) => void;
+export type FitRunner = (fit: FitSpec, asOf?: string) => void;
 
 export interface BuildInput {
   root: string;
@@ -78,24 +82,24 @@ export function buildStudy(input: BuildInput): Study {
       data: String(raw.data),
       method: raw.method === 'rank' ? 'rank' : 'mle',
       threeParameter: raw.location === true,
-      lifeUnit: typeof raw.life_unit === 'string' ? raw.life_unit : 'years',
       confidence: typeof raw.confidence === 'number' ? raw.confidence : 0.9,
       at: file.at(['fits', id, 'data']),
     };
+    if (typeof raw.life_unit === 'string') f.lifeUnit = raw.life_unit;
     if (typeof raw.group === 'string') f.group = raw.group;
     if (typeof raw.source === 'string') f.source = raw.source;
     if (typeof raw.note === 'string') f.note = raw.note;
     return f;
   });
   // Every fit runs, used or not, so bad records surface as errors either way.
-  for (const f of fits) attempt(() => input.runFit(f));
+  for (const f of fits) attempt(() => input.runFit(f, asOf));
   const fitSources = new Map(fits.map((f) => [f.id, f]));
 
   const parameters: Parameter[] = [];
   const fittedLookup = (fitId: string, field: string, at: Pos) => {
     const fit = fits.find((f) => f.id === fitId);
     if (!fit) throw new StudyError(`unknown fit '${fitId}'`, at, fits.length ? `one of the fits: ${fits.map((f) => f.id).join(', ')}` : "a fit declared under 'fits:' in events.yaml");
-    if (!fit.result) throw new StudyError(`fit '${fitId}' could not be made (see the error for its data file)`, at, 'a fit whose data file reads and fits');
+    if (!fit.result) throw new FollowOnError(`fit '${fitId}' could not be made (see the error for its data file)`, at, 'a fit whose data file reads and fits');
     return fittedValue(fit, field, at);
   };
 
@@ -132,16 +136,20 @@ export function buildStudy(input: BuildInput): Study {
     });
   }
 
+  // Ids written but refused (already reported): a later reference to one is a follow-on, not "unknown".
+  const refused = new Set<string>();
   const events: BasicEvent[] = [];
   for (const { id, raw, file } of entriesOf(sections, 'events')) {
     const e = attempt(() => readEvent(id, raw, file, classes, parameters, fittedLookup, fitSources, asOf));
     if (e) events.push(e);
+    else refused.add(id);
   }
 
   const gates: Gate[] = [];
   for (const { id, raw, file } of entriesOf(sections, 'gates')) {
     const g = attempt(() => readGate(id, raw, file));
     if (g) gates.push(g);
+    else refused.add(id);
   }
   const tops: Top[] = entriesOf(sections, 'tops').map(({ id, raw, file }) => ({
     id,
@@ -157,11 +165,11 @@ export function buildStudy(input: BuildInput): Study {
   }
 
   // counts:, event_trees:, failure_modes: (after the logic and events they refer to).
-  const shared = attempt(() => readSharedCauseSections({ sections, gates, tops, events, parameters, sourceIds: new Set(sources.map((x) => x.id)), fitted: fittedLookup }));
+  const shared = attempt(() => readSharedCauseSections({ sections, gates, tops, events, refused, parameters, sourceIds: new Set(sources.map((x) => x.id)), fitted: fittedLookup }));
 
   const scenarios: Scenario[] = [];
   for (const { id, raw, file } of entriesOf(sections, 'scenarios')) {
-    const s = attempt(() => readScenario(id, raw, file, events, classes, asOf));
+    const s = attempt(() => readScenario(id, raw, file, events, classes, asOf, refused));
     if (s) scenarios.push(s);
   }
 
@@ -460,8 +468,9 @@ function readScenario(
   raw: Record<string, unknown>,
   file: YamlFile,
   events: BasicEvent[],
-  classes: Map<string, { model?: ModelKind; fields: Map<string, string> }>,
+  classes: Map<string, { model?: ModelKind; fields: Map<string, string>; failed?: Set<string> }>,
   asOf: string | undefined,
+  refused: Set<string>,
 ): Scenario {
   const at = file.keyAt(['scenarios', id]);
   const s: Scenario = { id, title: String(raw.title ?? id), set: [], switches: [], renew: [], at };
@@ -473,23 +482,30 @@ function readScenario(
     const event = events.find((e) => e.id === owner);
     const cls = classes.get(owner);
     const known = event ? Object.keys(event.fields) : cls ? [...cls.fields.keys()] : undefined;
-    if (dot < 1 || !known) throw new StudyError(`scenario '${id}' sets '${key}', which names no event or class`, kAt, "'<event or class id>.<field>', e.g. 'hoist-motor.exercise'");
-    if (!known.includes(field)) throw new StudyError(`scenario '${id}' sets '${key}', but '${owner}' has no '${field}'`, kAt, `one of: ${known.map((f) => `${owner}.${f}`).join(', ')}`);
+    if (refused.has(owner) || cls?.failed?.has(field)) throw new FollowOnError(`scenario '${id}' sets '${key}', whose owner or value was refused`, kAt, 'see the error for it');
+    if (dot < 1 || !known) {
+      // Did you mean: the nearest '<owner>.<field>' the study has.
+      const keys = [...events.flatMap((e) => Object.keys(e.fields).map((f) => `${e.id}.${f}`)), ...[...classes].flatMap(([c, v]) => [...v.fields.keys()].map((f) => `${c}.${f}`))];
+      throw new StudyError(`scenario '${id}' sets '${key}', which names no event or class`, kAt, suggest(key, keys, "'<event or class id>.<field>', e.g. 'hoist-motor.exercise'"));
+    }
+    if (!known.includes(field)) throw new StudyError(`scenario '${id}' sets '${key}', but '${owner}' has no '${field}'`, kAt, suggest(key, known.map((f) => `${owner}.${f}`), `one of: ${known.map((f) => `${owner}.${f}`).join(', ')}`));
     const quantity = quantityOfField(field);
     const vAt = file.at(['scenarios', id, 'set', key]);
-    const q = readQuantity(value, quantity, vAt, `scenario '${id}' ${key}`);
-    checkDomain(field, quantity, q.value, vAt, `scenario '${id}' ${key}`);
+    const q = readQuantity(value, quantity, vAt, `scenario '${id}' ${key}`, field, file.sourceAt?.(['scenarios', id, 'set', key]));
+    checkDomain(field, quantity, q.value, vAt, `scenario '${id}' ${key}`, q.written);
     s.set.push({ key, value: q.value, written: q.written, at: vAt });
   }
   for (const [eventId, on] of Object.entries((raw.switch ?? {}) as Record<string, unknown>)) {
     const kAt = file.keyAt(['scenarios', id, 'switch', eventId]);
     const e = events.find((x) => x.id === eventId);
+    if (!e && refused.has(eventId)) throw new FollowOnError(`scenario '${id}' switches '${eventId}', which was refused`, kAt, 'see the error for it');
     if (!e || e.model !== 'switch') throw new StudyError(`scenario '${id}' switches '${eventId}', which is not a switch event`, kAt, `one of: ${events.filter((x) => x.model === 'switch').map((x) => x.id).join(', ') || '(the study has no switch events)'}`);
     s.switches.push({ event: eventId, on: Boolean(on), at: kAt });
   }
   for (const [eventId, date] of Object.entries((raw.renew ?? {}) as Record<string, unknown>)) {
     const kAt = file.keyAt(['scenarios', id, 'renew', eventId]);
     const e = events.find((x) => x.id === eventId);
+    if (!e && refused.has(eventId)) throw new FollowOnError(`scenario '${id}' renews '${eventId}', which was refused`, kAt, 'see the error for it');
     if (!e || e.model !== 'weibull') throw new StudyError(`scenario '${id}' renews '${eventId}', which is not a weibull event`, kAt, 'the id of an event with model weibull (renewal restarts its age)');
     const d = parseDate(String(date));
     if (!d.ok) throw new StudyError(`scenario '${id}' renew ${eventId}: ${d.message}`, file.at(['scenarios', id, 'renew', eventId]), d.expected);

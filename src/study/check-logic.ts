@@ -51,7 +51,7 @@ export function checkLogic(parts: LogicParts): void {
     const cycle = findCycle(parts.gates, gateIds);
     if (cycle) {
       const g = gateIds.get(cycle[0]!)!;
-      errors.push(new StudyError(`the logic loops back on itself: ${cycle.join(' → ')}`, g.at, 'a tree: no gate may depend on itself through its inputs'));
+      errors.push(new StudyError(`the logic loops back on itself: ${describeCycle(cycle)}`, g.at, 'a tree: no gate may depend on itself through its inputs'));
     }
   }
   if (errors.length) throw new StudyErrors(errors);
@@ -111,4 +111,14 @@ function editDistance(a: string, b: string): number {
     }
   }
   return prev[b.length]!;
+}
+
+/** Steps shown at each end of a long loop; the middle is counted, not printed. */
+const CYCLE_ENDS = 4;
+
+/** A loop as `a → b → … (N more) … → y → a`, short enough for one terminal line. */
+export function describeCycle(cycle: readonly string[]): string {
+  if (cycle.length <= 2 * CYCLE_ENDS + 1) return cycle.join(' → ');
+  const hidden = cycle.length - 2 * CYCLE_ENDS;
+  return [...cycle.slice(0, CYCLE_ENDS), `… ${hidden.toLocaleString('en-US')} more gates …`, ...cycle.slice(-CYCLE_ENDS)].join(' → ');
 }

@@ -23,6 +23,25 @@ export class StudyError extends Error {
   }
 }
 
+/**
+ * A problem that only follows from another one already reported: a reference to an event, gate or
+ * fit whose own definition was refused. The collector reports it only when nothing else is wrong,
+ * so one slip gives one message (an `installed` date after `as_of` does not also make every
+ * scenario that renews the event "not a weibull event").
+ */
+export class FollowOnError extends StudyError {
+  constructor(message: string, at?: Pos, hint?: string) {
+    super(message, at, hint);
+    this.name = 'FollowOnError';
+  }
+}
+
+/** The errors worth showing: the root causes, or every error when all of them are follow-ons (never none). */
+export function rootCauses(errors: StudyError[]): StudyError[] {
+  const roots = errors.filter((e) => !(e instanceof FollowOnError));
+  return roots.length > 0 ? roots : errors;
+}
+
 /** Several input problems found in one pass, reported together. */
 export class StudyErrors extends Error {
   constructor(readonly errors: StudyError[]) {
@@ -49,7 +68,8 @@ export class ErrorCollector {
     }
   }
 
+  /** Throws the root causes found (follow-on errors are dropped while a root cause is there). */
   throwIfAny(): void {
-    if (this.errors.length > 0) throw new StudyErrors(this.errors);
+    if (this.errors.length > 0) throw new StudyErrors(rootCauses(this.errors));
   }
 }

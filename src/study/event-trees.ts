@@ -21,7 +21,7 @@
  * Numbers of trees and mode sets become Parameters (owner kinds `tree` and `modes`), so they carry
  * sources and appear in the provenance register like every other number.
  */
-import { ErrorCollector, StudyError } from './errors.js';
+import { ErrorCollector, FollowOnError, StudyError } from './errors.js';
 import { readParameter } from './quantities.js';
 import { entriesOf, type Sections } from './sections.js';
 import type {
@@ -47,6 +47,8 @@ export interface TreeParts {
   gates: Gate[];
   tops: Top[];
   events: BasicEvent[];
+  /** Ids of events and gates that were written but refused (already reported). */
+  refused?: Set<string>;
   /** The study's parameters so far; the numbers read here are appended. */
   parameters: Parameter[];
   /** Source ids, for a load's `source:`. */
@@ -94,14 +96,17 @@ class Names {
   readonly gates: Set<string>;
   readonly tops: Map<string, Top>;
   readonly events: Set<string>;
+  readonly refused: Set<string>;
   counts = new Map<string, CountSet>();
   constructor(parts: TreeParts) {
     this.gates = new Set(parts.gates.map((g) => g.id));
     this.tops = new Map(parts.tops.map((t) => [t.id, t]));
     this.events = new Set(parts.events.map((e) => e.id));
+    this.refused = parts.refused ?? new Set();
   }
+  /** A gate, top or event id; one that was written but refused counts too (its own error says why). */
   isLogic(id: string): boolean {
-    return this.gates.has(id) || this.tops.has(id) || this.events.has(id);
+    return this.gates.has(id) || this.tops.has(id) || this.events.has(id) || this.refused.has(id);
   }
 }
 
@@ -260,6 +265,7 @@ function readCondition(
       return { kind: 'by-range', keys: readByRange(c.by_range, file, [...path, 'by_range'], tree, 'tree', heading, rangeIds, parts, source) };
     case 'gate': {
       const g = String(c.gate);
+      if (!names.gates.has(g) && names.refused.has(g)) throw new FollowOnError(`heading '${heading}' names gate '${g}', which was refused`, file.at([...path, 'gate']), 'see the error for it');
       if (!names.gates.has(g)) throw new StudyError(`heading '${heading}' names unknown gate '${g}'`, file.at([...path, 'gate']), names.tops.has(g) ? `'top: ${g}' (it is a top)` : 'a gate id from logic.yaml');
       return { kind: 'gate', gate: g };
     }

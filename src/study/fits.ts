@@ -5,15 +5,21 @@
 import { FitError, fitWeibull, type WeibullFit } from '../reliability/fit/index.js';
 import { StudyError } from './errors.js';
 import { fitData, parseLifeData } from './life-data.js';
-import type { FitSpec, Pos } from './types.js';
+import type { BasicEvent, FitSpec, Pos, Study } from './types.js';
 
 export type ReadText = (rel: string, at: Pos) => string;
 
-export function runFit(fit: FitSpec, readText: ReadText): WeibullFit {
+/** `asOf`: the study's snapshot date; a record that ends after it is an error. */
+export function runFit(fit: FitSpec, readText: ReadText, asOf?: string): WeibullFit {
   if (fit.result) return fit.result;
   const text = readText(fit.data, fit.at);
-  const records = parseLifeData(text, fit.data, { lifeUnit: fit.lifeUnit });
+  const records = parseLifeData(text, fit.data, {
+    ...(fit.lifeUnit !== undefined ? { lifeUnit: fit.lifeUnit } : {}),
+    ...(asOf !== undefined ? { asOf } : {}),
+    unitOption: `'life_unit: h' (or years, days…) on fit '${fit.id}'`,
+  });
   const data = fitData(records, fit.group);
+  fit.dataMaxYears = Math.max(...data.map((d) => d.time));
   try {
     fit.result = fitWeibull(data, { method: fit.method, threeParameter: fit.threeParameter, confidence: fit.confidence });
   } catch (err) {
@@ -22,6 +28,23 @@ export function runFit(fit: FitSpec, readText: ReadText): WeibullFit {
   }
   fit.rows = records.records.length;
   return fit.result;
+}
+
+/**
+ * Where an event's age lies beyond the data behind its fitted shape or scale: older than every life,
+ * failed or suspended, the fit used. The model still gives a number, but an extrapolated one.
+ */
+export function extrapolation(study: Pick<Study, 'parameters' | 'fits'>, event: BasicEvent): { fit: string; age_years: number; data_max_years: number } | undefined {
+  if (event.model !== 'weibull' || event.ageYears === undefined) return undefined;
+  for (const field of ['shape', 'scale'] as const) {
+    const key = event.fields[field];
+    const fitId = key ? study.parameters.find((p) => p.key === key)?.fit : undefined;
+    const fit = fitId ? study.fits.find((f) => f.id === fitId) : undefined;
+    if (fit?.dataMaxYears !== undefined && event.ageYears > fit.dataMaxYears) {
+      return { fit: fit.id, age_years: event.ageYears, data_max_years: fit.dataMaxYears };
+    }
+  }
+  return undefined;
 }
 
 /** Provenance line for the register: "fitted from data/x.csv: 14 failures, 61 suspensions, maximum likelihood". */

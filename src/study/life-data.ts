@@ -9,8 +9,12 @@
  * - Life is given EITHER in a `life` column OR as two dates, `installed` and `ended` (ISO: `1994`,
  *   `1994-05`, `2026-06-30`; life = days between / 365.25). A header with both is refused, so one
  *   file has one way of stating life.
- * - `life` is a bare number in `lifeUnit` (default years), or a number with its own unit
- *   (`12 years`, `8000 h`). Lives are returned in years, the project's canonical unit.
+ * - Each `life` is a number with its own unit (`12 years`, `8000 h`), or a bare number whose unit is
+ *   stated once: in the header (`life_h`, `life_years`, `life (hours)`, `life [h]`) or by the caller
+ *   (`life_unit:` on a study's fit, `faultbook fit --life-unit`). A bare life with no stated unit is
+ *   an error (it once meant years), as are two different stated units, and bare and united lives
+ *   mixed in one column (one file, one way of writing life). Lives are returned in years, the
+ *   project's canonical unit.
  * - `status` is `failed` or `suspended`. `running` and `in service` are accepted as suspended:
  *   a unit still running at the record date is exactly a suspension (right-censored life), and field
  *   sheets often say so in those words. Anything else is an error, so a typo is never guessed.
@@ -21,7 +25,7 @@
  * Every problem is a StudyError at the file, line and column of the offending field.
  */
 import type { LifeObservation } from '../reliability/fit/observations.js';
-import { parseDate, parseDuration, unitInYears, yearsBetween } from '../reliability/units.js';
+import { isBareNumber, parseDate, parseDuration, unitInYears, yearsBetween } from '../reliability/units.js';
 import { StudyError } from './errors.js';
 import type { Pos } from './types.js';
 
@@ -40,8 +44,8 @@ export interface LifeRecord {
 
 export interface LifeRecords {
   file: string;
-  /** Unit that bare `life` numbers were read in. */
-  lifeUnit: string;
+  /** Unit that bare `life` numbers were read in; absent when every life carries its own unit (or life comes from dates). */
+  lifeUnit?: string;
   /** Every data row, excluded ones too, in file order. */
   records: LifeRecord[];
   /** Distinct groups in order of first appearance (empty without a `group` column). */
@@ -169,13 +173,35 @@ function positionOf(file: string, cell: Cell): Pos {
   return { file, line: cell.line, col: cell.col };
 }
 
-export function parseLifeData(text: string, file: string, options: { lifeUnit?: string } = {}): LifeRecords {
-  const lifeUnit = options.lifeUnit ?? 'years';
+/** `life_h`, `life_years`, `life (hours)`, `life [h]`: a life column that names the unit of its bare numbers. */
+const LIFE_WITH_UNIT = /^life(?:[ _]+([a-z]+)|\s*[([]\s*([a-z]+)\s*[)\]])$/;
+
+export interface LifeDataOptions {
+  /** Unit of bare life numbers, from the caller (`life_unit:` of a fit, `--life-unit`). */
+  lifeUnit?: string;
+  /** The study's snapshot date: a record ending after it cannot have been observed. */
+  asOf?: string;
+  /** How the caller lets the user state the unit, for the message when none is stated (e.g. "`--life-unit h`"). */
+  unitOption?: string;
+}
+
+export function parseLifeData(text: string, file: string, options: LifeDataOptions = {}): LifeRecords {
   const rows = splitCsv(text, file);
   const headerRow = rows[0];
   if (!headerRow) throw new StudyError('the file has no header row and no data', { file, line: 1, col: 1 }, HEADER_HINT);
   const headerAt: Pos = { file, line: headerRow.line, col: 1 };
   const names = headerRow.cells.map((c) => c.text.trim().toLowerCase());
+  // A life column may carry the unit of its bare numbers in its name.
+  let headerUnit: { unit: string; at: Pos } | undefined;
+  names.forEach((name, k) => {
+    const m = LIFE_WITH_UNIT.exec(name);
+    if (!m) return;
+    const unit = (m[1] ?? m[2])!;
+    const at = positionOf(file, headerRow.cells[k]!);
+    if (unitInYears(unit) === undefined) throw new StudyError(`the life column '${headerRow.cells[k]!.text.trim()}' names unknown unit '${unit}'`, at, "a life column such as 'life_h', 'life_years' or 'life (days)' (units: min, h, day, week, month, year)");
+    headerUnit = { unit, at };
+    names[k] = 'life';
+  });
   const column = new Map<string, number>();
   names.forEach((name, k) => {
     if (name === '') return;
@@ -199,10 +225,14 @@ export function parseLifeData(text: string, file: string, options: { lifeUnit?: 
   if (hasDates && !(column.has('installed') && column.has('ended'))) {
     throw new StudyError(`the header has '${column.has('installed') ? 'installed' : 'ended'}' without '${column.has('installed') ? 'ended' : 'installed'}'`, headerAt, "both 'installed' and 'ended' columns (life runs from one to the other)");
   }
-  const unitYears = unitInYears(lifeUnit.trim());
-  if (unitYears === undefined) {
-    throw new StudyError(`unknown life unit '${lifeUnit}'`, headerAt, 'one of min, h, day, week, month, year');
+  if (options.lifeUnit !== undefined && unitInYears(options.lifeUnit.trim()) === undefined) {
+    throw new StudyError(`unknown life unit '${options.lifeUnit}'`, headerAt, 'one of min, h, day, week, month, year');
   }
+  if (headerUnit && options.lifeUnit !== undefined && unitInYears(headerUnit.unit) !== unitInYears(options.lifeUnit.trim())) {
+    throw new StudyError(`the header says lives are in '${headerUnit.unit}', but ${options.unitOption ? 'the life unit given' : 'the caller'} says '${options.lifeUnit}'`, headerUnit.at, 'one unit for the bare lives: in the header or given by the caller, not two different ones');
+  }
+  const lifeUnit = headerUnit?.unit ?? options.lifeUnit?.trim();
+  const lifeColumn: LifeColumn = { unit: lifeUnit, how: options.unitOption };
 
   const records: LifeRecord[] = [];
   const groups: string[] = [];
@@ -219,7 +249,7 @@ export function parseLifeData(text: string, file: string, options: { lifeUnit?: 
       const k = column.get(name);
       return k === undefined ? undefined : row.cells[k];
     };
-    const life = hasLife ? readLife(cell('life')!, file, unitYears) : readDates(cell('installed')!, cell('ended')!, file);
+    const life = hasLife ? readLife(cell('life')!, file, lifeColumn) : readDates(cell('installed')!, cell('ended')!, file, options.asOf);
     const statusCell = cell('status')!;
     const word = statusCell.text.trim().toLowerCase().replace(/\s+/g, ' ');
     let status: LifeStatus;
@@ -245,25 +275,57 @@ export function parseLifeData(text: string, file: string, options: { lifeUnit?: 
       'at least one row with status failed and no exclude reason (rank regression needs two)',
     );
   }
-  return { file, lifeUnit, records, groups, at: headerAt };
+  return { file, ...(hasLife && lifeUnit !== undefined ? { lifeUnit } : {}), records, groups, at: headerAt };
 }
 
-function readLife(cell: Cell, file: string, unitYears: number): number {
+/** What the life column has shown so far: its stated unit, and whether its first life was bare (for the mixing rule). */
+interface LifeColumn {
+  unit: string | undefined;
+  how: string | undefined;
+  first?: { bare: boolean; line: number; text: string };
+}
+
+function readLife(cell: Cell, file: string, column: LifeColumn): number {
   const at = positionOf(file, cell);
   const text = cell.text.trim();
-  const bare = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/.test(text);
-  const parsed = parseDuration(text);
-  if (!parsed.ok) throw new StudyError(text === '' ? 'the life is empty' : `life: ${parsed.message}`, at, 'a positive life such as "12.5", "12 years" or "8000 h"');
-  const years = bare ? parsed.value * unitYears : parsed.value;
+  if (text === '') throw new StudyError('the life is empty', at, 'a positive life such as "12 years" or "8000 h"');
+  const bare = isBareNumber(text);
+  if (column.first === undefined) column.first = { bare, line: cell.line, text };
+  else if (column.first.bare !== bare) {
+    throw new StudyError(
+      `life ${text} is ${bare ? 'a bare number' : 'written with a unit'}, but line ${column.first.line} gives ${column.first.text} ${column.first.bare ? 'without' : 'with'} one`,
+      at,
+      'every life of the column written the same way: all with their unit ("12 years"), or all bare with the unit stated once (a header such as "life_years")',
+    );
+  }
+  let years: number;
+  if (bare) {
+    const amount = Number(text);
+    if (column.unit === undefined) {
+      throw new StudyError(
+        `life ${text} has no unit, and the file states none`,
+        at,
+        `the unit once for the whole column: a header such as "life_h" or "life (years)"${column.how ? `, or ${column.how}` : ''}; or a unit on each life ("${text} years")`,
+      );
+    }
+    years = amount * unitInYears(column.unit)!;
+  } else {
+    const parsed = parseDuration(text);
+    if (!parsed.ok) throw new StudyError(`life: ${parsed.message}`, at, 'a positive life such as "12 years" or "8000 h"');
+    years = parsed.value;
+  }
   if (!(years > 0)) throw new StudyError(`life ${text} is not positive`, at, 'a life greater than zero');
   return years;
 }
 
-function readDates(installedCell: Cell, endedCell: Cell, file: string): number {
+function readDates(installedCell: Cell, endedCell: Cell, file: string, asOf?: string): number {
   const from = parseDate(installedCell.text);
   if (!from.ok) throw new StudyError(`installed: ${from.message}`, positionOf(file, installedCell), from.expected);
   const to = parseDate(endedCell.text);
   if (!to.ok) throw new StudyError(`ended: ${to.message}`, positionOf(file, endedCell), to.expected);
+  if (asOf !== undefined && yearsBetween(asOf, to.value) > 0) {
+    throw new StudyError(`ended ${endedCell.text} is after the study's as_of date ${asOf}`, positionOf(file, endedCell), `an end date on or before ${asOf} (a unit still running then is suspended at ${asOf})`);
+  }
   const years = yearsBetween(from.value, to.value);
   if (!(years > 0)) {
     throw new StudyError(

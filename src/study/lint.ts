@@ -2,6 +2,7 @@
  * Lint: things that are allowed but suspicious. Each warning is printed by `check` and `run` and
  * listed in the appendix; none stops a run.
  */
+import { extrapolation } from './fits.js';
 import { reachable } from './reach.js';
 import type { Study, Warning } from './types.js';
 
@@ -31,6 +32,23 @@ export function lint(study: Study): Warning[] {
     const key = e.fields.exercise;
     if (key && e.ageYears !== undefined && param.get(key)!.value > e.ageYears) {
       out.push({ code: 'exercise-over-age', message: `event '${e.id}': exercise interval ${param.get(key)!.written} is longer than its age at as_of (${e.ageYears.toFixed(2)} years)`, at: e.at });
+    }
+  }
+  for (const e of study.events) {
+    const x = extrapolation(study, e);
+    if (x) {
+      out.push({
+        code: 'age-beyond-fit-data',
+        message: `event '${e.id}': its age at as_of, ${x.age_years.toFixed(1)} years, is beyond the data of fit '${x.fit}' (lives up to ${x.data_max_years.toFixed(1)} years, failed or suspended); its probability is an extrapolation`,
+        at: e.at,
+      });
+    }
+  }
+  for (const p of study.parameters) {
+    // 1e-400 reads as 0: a number too small for double precision silently became another number.
+    const mantissa = /^[+-]?([0-9.]+)[eE]/.exec(p.written)?.[1];
+    if (p.value === 0 && mantissa !== undefined && /[1-9]/.test(mantissa)) {
+      out.push({ code: 'value-underflow', message: `'${p.key}' = ${p.written} is below the smallest number the arithmetic holds and is taken as 0`, at: p.at });
     }
   }
   const cited = new Set(study.parameters.map((p) => p.source).filter((s): s is string => Boolean(s)));

@@ -15,6 +15,8 @@ import { parseYamlFile, type YamlFile } from './yaml.js';
 
 /** A study file larger than this is refused before it is read (a real study is kilobytes). */
 export const MAX_FILE_BYTES = 8 * 1024 * 1024;
+/** assumptions.md larger than this would not make an appendix in bounded time (about 20,000 words). */
+export const MAX_MARKDOWN_BYTES = 128 * 1024;
 
 const YAML_FILES: { name: string; kind: StudyFileKind }[] = [
   { name: 'study.yaml', kind: 'study' },
@@ -43,9 +45,18 @@ export function readStudy(folder: string): Study {
       throw new StudyError(`${rel} is ${(size / 1048576).toFixed(1)} MiB, larger than a study file may be`, at ?? { file: rel, line: 1, col: 1 }, `a file under ${MAX_FILE_BYTES / 1048576} MiB`);
     }
     const buf = readFileSync(full);
-    const text = buf.toString('utf8');
+    const text = decodeUtf8(buf, rel);
     if (text.includes('\u0000')) throw new StudyError(`${rel} is not a text file`, at ?? { file: rel, line: 1, col: 1 }, 'UTF-8 text');
     if (!files.some((f) => f.path === rel)) files.push({ path: rel, sha256: sha256(buf), text });
+    return text;
+  };
+
+  const readMarkdown = (rel: string): string => {
+    const text = readText(rel);
+    const bytes = Buffer.byteLength(text, 'utf8');
+    if (bytes > MAX_MARKDOWN_BYTES) {
+      throw new StudyError(`${rel} is ${(bytes / 1024).toFixed(0)} KiB, more Markdown than an appendix can hold`, { file: rel, line: 1, col: 1 }, `at most ${MAX_MARKDOWN_BYTES / 1024} KiB of Markdown (keep long material in a referenced document)`);
+    }
     return text;
   };
 
@@ -62,17 +73,57 @@ export function readStudy(folder: string): Study {
   }
   if (structureErrors.length) throw structureErrors.length === 1 ? structureErrors[0]! : new StudyErrors(structureErrors);
 
-  const assumptions = existsSync(join(root, 'assumptions.md')) ? parseAssumptions(readText('assumptions.md'), 'assumptions.md') : [];
+  const assumptions = existsSync(join(root, 'assumptions.md')) ? parseAssumptions(readMarkdown('assumptions.md'), 'assumptions.md') : [];
   const study = buildStudy({
     root,
     yamlFiles,
     assumptions,
     files,
-    runFit: (fit) => void runFit(fit, readText),
+    runFit: (fit, asOf) => void runFit(fit, readText, asOf),
   });
   // The manifest lists files in a fixed order, whatever order they were read in.
   study.files.sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0));
   return study;
+}
+
+const strictUtf8 = new TextDecoder('utf-8', { fatal: true, ignoreBOM: true });
+
+/**
+ * A study file as text. Bytes that are not UTF-8 (a file saved as Latin-1, say) are an input error
+ * at the first such byte, not silently replaced by U+FFFD: a changed title or id would pass unseen.
+ */
+export function decodeUtf8(buf: Buffer, rel: string): string {
+  try {
+    return strictUtf8.decode(buf);
+  } catch {
+    const bad = firstInvalidUtf8(buf);
+    const lineStart = buf.lastIndexOf(0x0a, bad - 1) + 1;
+    let line = 1;
+    for (let i = buf.indexOf(0x0a); i >= 0 && i < bad; i = buf.indexOf(0x0a, i + 1)) line++;
+    const col = buf.subarray(lineStart, bad).toString('utf8').length + 1;
+    const byte = buf[bad]!.toString(16).toUpperCase().padStart(2, '0');
+    throw new StudyError(`${rel} is not valid UTF-8 (byte 0x${byte})`, { file: rel, line, col }, 'UTF-8 text: save the file as UTF-8');
+  }
+}
+
+/** Offset of the first byte that does not begin or continue a valid UTF-8 sequence (RFC 3629). */
+function firstInvalidUtf8(buf: Buffer): number {
+  let i = 0;
+  while (i < buf.length) {
+    const b = buf[i]!;
+    const need = b < 0x80 ? 0 : b >= 0xc2 && b <= 0xdf ? 1 : b >= 0xe0 && b <= 0xef ? 2 : b >= 0xf0 && b <= 0xf4 ? 3 : -1;
+    if (need < 0) return i;
+    if (i + need >= buf.length && need > 0) return i;
+    // The second byte's range narrows for E0, ED, F0 and F4 (no overlongs, surrogates or > U+10FFFF).
+    const lo = b === 0xe0 ? 0xa0 : b === 0xf0 ? 0x90 : 0x80;
+    const hi = b === 0xed ? 0x9f : b === 0xf4 ? 0x8f : 0xbf;
+    for (let k = 1; k <= need; k++) {
+      const c = buf[i + k]!;
+      if (k === 1 ? c < lo || c > hi : c < 0x80 || c > 0xbf) return i;
+    }
+    i += need + 1;
+  }
+  return buf.length;
 }
 
 /**

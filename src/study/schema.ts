@@ -58,16 +58,27 @@ function describePath(path: PathSegment[], file: YamlFile): string {
  * specific error per instance path: an unknown key beats a type mismatch beats "no branch matched".
  */
 function translate(errors: ErrorObject[], file: YamlFile): StudyError[] {
-  const rank: Record<string, number> = { additionalProperties: 0, required: 1, enum: 2, const: 2, pattern: 3, type: 4, minimum: 5, maximum: 5 };
+  const rank: Record<string, number> = { maxProperties: -1, additionalProperties: 0, required: 1, enum: 2, const: 2, pattern: 3, type: 4, minimum: 5, maximum: 5 };
+  // A duration or rate written without its unit: the reader says so with the field and the likely
+  // units, far better than "not a valid parameter", so every complaint at that place is left to it.
+  const unitless = new Set(errors.filter((e) => /\/(durationText|rateText)\//.test(e.schemaPath) || /#\/definitions\/(durationText|rateText)$/.test(e.schemaPath.replace(/\/(type|pattern)$/, ''))).map((e) => e.instancePath));
   const byPath = new Map<string, ErrorObject>();
+  const badIds: StudyError[] = [];
   for (const e of errors) {
+    if (unitless.has(e.instancePath) || [...unitless].some((p) => e.instancePath === p.slice(0, p.lastIndexOf('/')) && e.keyword === 'oneOf')) continue;
+    // A key that breaks the id rule (propertyNames): one error per key, at the key itself.
+    if (e.keyword === 'propertyNames') continue;
+    if (e.propertyName !== undefined) {
+      badIds.push(badIdError(e.propertyName, pathOf(e.instancePath), file));
+      continue;
+    }
     const key = e.instancePath;
     const prev = byPath.get(key);
     if (!prev || (rank[e.keyword] ?? 9) < (rank[prev.keyword] ?? 9)) byPath.set(key, e);
   }
   // A oneOf failure at a parent is only noise when a child path already explains it.
   const paths = [...byPath.keys()];
-  const out: StudyError[] = [];
+  const out: StudyError[] = [...badIds];
   for (const [instancePath, e] of byPath) {
     if (e.keyword === 'oneOf' && paths.some((p) => p !== instancePath && p.startsWith(instancePath + '/'))) continue;
     out.push(toStudyError(e, pathOf(instancePath), file));
@@ -86,8 +97,11 @@ function toStudyError(e: ErrorObject, path: PathSegment[], file: YamlFile): Stud
     }
     case 'required':
       return new StudyError(`${where} is missing '${String(params.missingProperty)}'`, file.at(path), `add '${String(params.missingProperty)}:'`);
-    case 'enum':
-      return new StudyError(`${where} has a value that is not allowed`, file.at(path), `one of: ${(params.allowedValues as unknown[]).map(String).join(', ')}`);
+    case 'enum': {
+      const allowed = (params.allowedValues as unknown[]).map(String);
+      const written = typeof e.data === 'string' ? ` '${e.data}'` : '';
+      return new StudyError(`${where} has a value${written} that is not allowed`, file.at(path), typeof e.data === 'string' ? suggest(e.data, allowed, `one of: ${allowed.join(', ')}`) : `one of: ${allowed.join(', ')}`);
+    }
     case 'const':
       return new StudyError(`${where} must be ${JSON.stringify(params.allowedValue)}`, file.at(path), JSON.stringify(params.allowedValue));
     case 'type':
@@ -100,11 +114,26 @@ function toStudyError(e: ErrorObject, path: PathSegment[], file: YamlFile): Stud
     case 'exclusiveMaximum':
       // ajv's own text ("must be >= 1000") reads as code; say the value and the range instead.
       return new StudyError(`${where} is ${typeof e.data === 'number' ? String(e.data) : JSON.stringify(e.data)}, out of range`, file.at(path), `a number ${String(params.comparison)} ${String(params.limit)}`);
+    case 'maxProperties': {
+      const count = e.data && typeof e.data === 'object' ? Object.keys(e.data).length : undefined;
+      const desc = (e.parentSchema as { description?: string } | undefined)?.description;
+      return new StudyError(`${where} has ${count ?? 'too many'} entries, more than ${String(params.limit)}`, file.at(path), desc ?? `at most ${String(params.limit)}`);
+    }
     case 'oneOf':
       return new StudyError(`${where} is not a valid parameter`, file.at(path), (e.parentSchema as { description?: string } | undefined)?.description ?? 'see the study format in the README');
     default:
       return new StudyError(`${where} ${e.message ?? 'is not valid'}`, file.at(path), (e.parentSchema as { description?: string } | undefined)?.description ?? 'see the study format in the README');
   }
+}
+
+/** An id key (of a top, gate, event, group, tree, scenario …) that is not a letter followed by letters, digits, '-', '_' or '.'. */
+function badIdError(key: string, path: PathSegment[], file: YamlFile): StudyError {
+  const what = key === '' ? 'an empty id' : `the id ${JSON.stringify(key)}, which is not a valid id`;
+  return new StudyError(
+    `${describePath(path, file)} has ${what}`,
+    file.keyAt([...path, key]),
+    "an id: a letter, then letters, digits, '-', '_' or '.' (no spaces, slashes, formulas or control characters)",
+  );
 }
 
 function allowedKeys(e: ErrorObject): string[] {

@@ -139,11 +139,13 @@ export interface Settings {
   cutoff: number;
   /** Cut sets of more events than this are not listed. */
   max_order: number;
+  /** At most this many cut sets are kept per top (the most probable); the rest are counted and summed. */
+  max_cut_sets: number;
   samples: number;
   seed: number;
   /** Forecast horizon, years. */
   horizon: number;
-  /** Decision-diagram node budget. */
+  /** Decision-diagram node budget: live nodes (garbage is collected), default about 2 GB worth. */
   max_nodes: number;
   /** How a Weibull `exercise` interval turns into a probability: at its end (default) or averaged over it. */
   exercise_basis: 'end' | 'average';
@@ -218,13 +220,15 @@ export interface FitSpec {
   result?: WeibullFit;
   /** Set by the reader: rows in the file, excluded ones too. */
   rows?: number;
+  /** Set by the reader: the longest life (failed or suspended) among the records the fit used, years. */
+  dataMaxYears?: number;
   /** Path inside the study folder, as written. */
   data: string;
   method: 'mle' | 'rank';
   /** Also fit a location (failure-free time) parameter. */
   threeParameter: boolean;
-  /** Unit of the `life` column when it is a bare number (default years). */
-  lifeUnit: string;
+  /** Unit of bare numbers in the `life` column (`life_unit:`); absent when the file states it or every life has its own. */
+  lifeUnit?: string;
   /** Confidence level for the bounds shown, e.g. 0.9. */
   confidence: number;
   at: Pos;

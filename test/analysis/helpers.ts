@@ -2,9 +2,9 @@
  * Small studies written by the tests themselves (every value INVENTED for the test; no real
  * equipment or data), read through the real reader so the analysis sees what a user's study gives.
  */
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
+import { tempDir } from '../temp.js';
 import { readStudy } from '../../src/study/read.js';
 import type { Study } from '../../src/study/types.js';
 
@@ -21,7 +21,7 @@ export interface StudyText {
 }
 
 export function writeStudy(parts: StudyText): string {
-  const dir = mkdtempSync(join(tmpdir(), 'faultbook-analysis-'));
+  const dir = tempDir('faultbook-analysis-');
   writeFileSync(
     join(dir, 'study.yaml'),
     [

@@ -3,9 +3,11 @@
 // independently by brute-force enumeration of all 2^n states and by finite differences.
 // Source files: src/analysis/importance-classes.ts (class importance) and the per-event importance
 // that src/analysis/quantify.ts takes from src/logic/importance.ts.
+import { rmSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { analyze } from '../../src/analysis/analyze.js';
-import { enumerate, studyOf } from './helpers.js';
+import { readStudy } from '../../src/study/read.js';
+import { enumerate, studyOf, writeStudy } from './helpers.js';
 
 // Invented data: three valves (one class), two pumps (one class), an operator action and a power
 // supply (a class of one), all `fixed` so the probabilities are the numbers written.
@@ -190,5 +192,51 @@ common_cause:
     expect(c.p_working).toBeCloseTo(p0, 14);
     expect(c.fussell_vesely).toBeCloseTo((exact - p0) / exact, 12);
     expect(c.rrw).toBeCloseTo(exact / p0, 12);
+  });
+});
+
+describe('importance that rounds to nothing', () => {
+  // top = any[tiny, big, muted], tiny of class k (p = 1e-20), big 0.5, muted under an AND with a
+  // house event that is off. Exact values by hand (NUREG/CR-3385 definitions):
+  //   class FV of k = (P − P0)/P = 1e-20·(1 − 0.5)/P with P = 1 − (1 − 1e-20)(1 − 0.5),
+  // which P − P0 formed by subtraction would give as 0; `muted` cannot change the top at all.
+  const dir = writeStudy({
+    events: `
+classes:
+  k: { title: K, model: fixed, probability: { value: 1e-20, source: test-data } }
+events:
+  tiny: { title: Tiny, class: k }
+  big: { title: Big, model: fixed, probability: { value: 0.5, source: test-data } }
+  muted: { title: Muted, model: fixed, probability: { value: 0.1, source: test-data } }
+  house: { title: House, model: switch, on: false }
+`,
+    logic: `
+tops:
+  t: { title: T, gate: top }
+gates:
+  top: { any: [tiny, big, off] }
+  off: { all: [muted, house] }
+`,
+    settings: '  samples: 0\n  horizon: 0',
+  });
+  const results = analyze(readStudy(dir));
+  rmSync(dir, { recursive: true, force: true });
+  const top = results.tops[0]!;
+
+  it('class FV is computed like per-event FV, not by subtraction', () => {
+    const P = 0.5 + 0.5 * 1e-20;
+    const k = top.class_importance!.find((c) => c.class === 'k')!;
+    expect(Math.abs(k.fussell_vesely - (1e-20 * 0.5) / P)).toBeLessThanOrEqual(1e-34);
+    // The same as the single event's FV (a class of one event).
+    const tiny = top.importance!.find((i) => i.event === 'tiny')!;
+    expect(Math.abs(k.fussell_vesely - tiny.fussell_vesely)).toBeLessThanOrEqual(1e-34);
+    expect(k.raw).toBeGreaterThanOrEqual(1);
+    expect(k.rrw).toBeGreaterThanOrEqual(1);
+  });
+
+  it('events with zero importance are listed with a note, not dropped', () => {
+    expect(top.importance!.map((i) => i.event)).not.toContain('muted');
+    expect(top.no_effect!.events).toEqual(['muted']);
+    expect(top.no_effect!.note).toMatch(/cannot|no change/);
   });
 });

@@ -18,9 +18,10 @@ import { studyOf } from './helpers.js';
 
 const ONE_EVENT_LOGIC = 'tops:\n  t: { title: The one event, gate: g }\ngates:\n  g: { any: [e] }\n';
 
-function oneEvent(uncertainty: string, settings: string): Study {
+/** The point value sits inside its distribution (a point outside its own 1st–99th percentile is an input error). */
+function oneEvent(uncertainty: string, settings: string, value = '1e-3'): Study {
   return studyOf({
-    events: `events:\n  e: { title: One event (invented), model: fixed, probability: { value: 1e-3, source: test-data, uncertainty: ${uncertainty} } }\n`,
+    events: `events:\n  e: { title: One event (invented), model: fixed, probability: { value: ${value}, source: test-data, uncertainty: ${uncertainty} } }\n`,
     logic: ONE_EVENT_LOGIC,
     settings,
   });
@@ -106,7 +107,7 @@ describe('plain Monte Carlo, lognormal by median and error factor', () => {
 describe('Latin hypercube sampling', () => {
   it('puts exactly one trial in each of n equal-probability strata (McKay, Beckman & Conover 1979)', () => {
     const n = 1000;
-    const study = oneEvent('{ uniform: { min: 1e-3, max: 2e-3 } }', `  samples: ${n}\n  seed: 3\n  sampling: latin-hypercube\n  horizon: 0`);
+    const study = oneEvent('{ uniform: { min: 1e-3, max: 2e-3 } }', `  samples: ${n}\n  seed: 3\n  sampling: latin-hypercube\n  horizon: 0`, '1.5e-3');
     const q = new CaseQuantifier(study, buildLogicModel(study), compileCase(study, buildLogicModel(study), new Map()));
     const run = monteCarlo(study, q)!;
     expect(run.method).toBe('latin-hypercube');
@@ -138,7 +139,7 @@ describe('other distributions through the same path', () => {
   });
 
   it('a sampled probability above 1 is set to 1 and the trials counted', () => {
-    const study = oneEvent('{ lognormal: { median: 0.5, ef: 10 } }', '  samples: 5000\n  seed: 2\n  horizon: 0');
+    const study = oneEvent('{ lognormal: { median: 0.5, ef: 10 } }', '  samples: 5000\n  seed: 2\n  horizon: 0', '0.5');
     const u = analyze(study).uncertainty![0]!;
     // P(X > 1) = 1 − Φ(ln 2/σ), σ = ln 10/1.645 = 1.3998: Φ(0.4952) = 0.6898, so about 31% of 5000.
     expect(u.clipped_trials).toBeGreaterThan(1400);
@@ -261,7 +262,7 @@ describe('Weibull shape and scale from a fit, sampled jointly', () => {
 
   it('a study with a real fit (invented life records) samples its shape and scale in every trial', () => {
     // Invented lives, years: 9 failures and 3 suspensions.
-    const csv = 'life,status\n12,failed\n18,failed\n21,failed\n25,failed\n27,suspended\n30,failed\n33,failed\n35,suspended\n38,failed\n41,failed\n44,failed\n46,suspended\n';
+    const csv = 'life_years,status\n12,failed\n18,failed\n21,failed\n25,failed\n27,suspended\n30,failed\n33,failed\n35,suspended\n38,failed\n41,failed\n44,failed\n46,suspended\n';
     const study = studyOf({
       events: 'fits:\n  motor-life: { data: data/motor-life.csv, method: mle }\nclasses:\n  motor:\n    model: weibull\n    shape: { fit: motor-life }\n    scale: { fit: motor-life }\nevents:\n  m1: { title: Motor 1, class: motor, installed: 2000 }\n',
       logic: 'tops:\n  t: { title: Motor fails, gate: g }\ngates:\n  g: { any: [m1] }\n',

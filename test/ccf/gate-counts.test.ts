@@ -129,3 +129,26 @@ counts:
     c.exact.forEach((x, j) => expect(Math.abs(x - want[j]!)).toBeLessThanOrEqual(1e-15));
   });
 });
+
+describe('as-if-independent column with marginals near 1', () => {
+  it('uses complements computed on the diagram, not 1 − marginal', () => {
+    // Three gates, each failing unless all eight of its own events (p = 0.9 each) are absent:
+    // P(gate works) = (1 − 0.9)^8 ≈ 1e-8, so P(no gate fails) = ((1 − 0.9)^8)^3 for independent
+    // gates (product rule, common practice, no source). Forming 1 − (1 − 1e-8) keeps only 8 digits.
+    const events: [string, number][] = [];
+    const gates: string[] = [];
+    for (let g = 1; g <= 3; g++) {
+      const ids = Array.from({ length: 8 }, (_, i) => `e${g}-${i}`);
+      for (const id of ids) events.push([id, 0.9]);
+      gates.push(`  gate-${g}: { any: [${ids.join(', ')}] }`);
+    }
+    const logic = `tops:\n  all: { title: All fail (invented), gate: all }\ngates:\n  all: { all: [gate-1, gate-2, gate-3] }\n${gates.join('\n')}\ncounts:\n  stuck: { title: Gates that fail (invented), of: [gate-1, gate-2, gate-3] }\n`;
+    const { results } = run({ events: eventsYaml(events), logic });
+    const c = results.gate_counts![0]!;
+    const works = Math.pow(1 - 0.9, 8);
+    expect(rel(c.independent[0]!, works ** 3)).toBeLessThanOrEqual(1e-12);
+    expect(rel(c.independent[1]!, 3 * (1 - works) * works ** 2)).toBeLessThanOrEqual(1e-12);
+    // The gates share nothing, so the exact column agrees.
+    expect(rel(c.exact[0]!, works ** 3)).toBeLessThanOrEqual(1e-12);
+  });
+});

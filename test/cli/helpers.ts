@@ -1,8 +1,9 @@
 /** Run the faultbook command in-process with captured output. */
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { main } from '../../src/cli/main.js';
+import { tempDir } from '../temp.js';
+
+/** Temporary folders are made (and removed after each test file) by test/temp.ts. */
+export { tempDir };
 
 export interface Captured {
   code: number;
@@ -15,8 +16,4 @@ export async function faultbook(...argv: string[]): Promise<Captured> {
   let stderr = '';
   const code = await main(argv, { stdout: (t) => (stdout += t), stderr: (t) => (stderr += t), isTTY: false });
   return { code, stdout, stderr };
-}
-
-export function tempDir(prefix = 'faultbook-test-'): string {
-  return mkdtempSync(join(tmpdir(), prefix));
 }

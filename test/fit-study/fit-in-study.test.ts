@@ -187,21 +187,30 @@ describe('a fit in a study: the appendix', () => {
 
 describe('faultbook fit on the reference records', () => {
   it('prints the published MLE values', async () => {
-    const r = await faultbook('fit', BALL_BEARINGS_PATH);
+    // The file's lives are bare (millions of revolutions); any unit will do for a unit-free fit.
+    const r = await faultbook('fit', BALL_BEARINGS_PATH, '--life-unit', 'years');
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/shape β\s+2\.102\s/);
-    expect(r.stdout).toMatch(/scale η\s+81\.88\s/);
+    expect(r.stdout).toMatch(/scale η \(years\)\s+81\.88\s/);
     expect(r.stdout).toContain('23 failures, 0 suspensions');
   });
 
   it('--json parses and holds the same fit', async () => {
-    const r = await faultbook('fit', BALL_BEARINGS_PATH, '--json');
+    const r = await faultbook('fit', BALL_BEARINGS_PATH, '--json', '--life-unit', 'years');
     expect(r.code).toBe(0);
     const fit = JSON.parse(r.stdout);
     expect(sig4(fit.shape)).toBe(PUBLISHED.shape);
     expect(sig4(fit.scale)).toBe(PUBLISHED.scale);
     expect([fit.n, fit.failures, fit.suspensions]).toEqual([23, 23, 0]);
     expect(fit.method).toBe('mle');
+  });
+
+  // Issue 11: a bare life no longer silently means years.
+  it('bare lives with no unit anywhere are an input error naming the option', async () => {
+    const r = await faultbook('fit', BALL_BEARINGS_PATH);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('ball-bearings.csv:6:1: life 17.88 has no unit, and the file states none');
+    expect(r.stderr).toContain('`--life-unit h`');
   });
 });

@@ -186,3 +186,27 @@ describe('MLE and rank on the same censored data', () => {
     expect(rank.shape).not.toBeCloseTo(mle.shape, 3);
   });
 });
+
+describe('Fisher-matrix bounds at any scale', () => {
+  // The Weibull is a scale family: multiplying every life by c multiplies η and its bounds by c
+  // and leaves β and its bounds unchanged (common practice, no source). So bounds relative to η
+  // must be the same for data ×1e-200, ×1 and ×1e200 (forming the information in (β, η) and
+  // scaling by η² gave null bounds or a false "not positive definite" error out there).
+  for (const method of ['mle', 'rank'] as const) {
+    it(`${method}: β bounds and η bounds relative to η are the same for data ×1e-200, ×1, ×1e200`, () => {
+      const fits = [1e-200, 1, 1e200].map((c) => fitWeibull(INVENTED_CENSORED.map((o) => ({ ...o, time: o.time * c })), { method, confidence: 0.9 }));
+      const base = fits[1]!;
+      for (const [i, c] of [1e-200, 1, 1e200].entries()) {
+        const f = fits[i]!;
+        const rel = (x: number, y: number) => Math.abs(x - y) / Math.abs(y);
+        expect(rel(f.shape, base.shape)).toBeLessThan(1e-9);
+        expect(rel(f.scale / c, base.scale)).toBeLessThan(1e-9);
+        expect(rel(f.bounds.fisher.shape.lower, base.bounds.fisher.shape.lower)).toBeLessThan(1e-9);
+        expect(rel(f.bounds.fisher.shape.upper, base.bounds.fisher.shape.upper)).toBeLessThan(1e-9);
+        expect(rel(f.bounds.fisher.scale.lower / f.scale, base.bounds.fisher.scale.lower / base.scale)).toBeLessThan(1e-9);
+        expect(rel(f.bounds.fisher.scale.upper / f.scale, base.bounds.fisher.scale.upper / base.scale)).toBeLessThan(1e-9);
+        for (const row of [0, 1] as const) for (const col of [0, 1] as const) expect(rel(f.covarianceLog[row][col], base.covarianceLog[row][col])).toBeLessThan(1e-8);
+      }
+    });
+  }
+});

@@ -4,10 +4,10 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { StudyError } from '../../src/study/errors.js';
 import { fitData, parseLifeData } from '../../src/study/life-data.js';
-import { BALL_BEARINGS_PATH } from './helpers.js';
+import { BALL_BEARINGS_PATH, BALL_BEARINGS_UNIT } from './helpers.js';
 
-/** The StudyError a text raises, for checking its place and hint. */
-function errorOf(text: string, options?: { lifeUnit?: string }): StudyError {
+/** The StudyError a text raises, for checking its place and hint (bare lives in years unless options say otherwise). */
+function errorOf(text: string, options: { lifeUnit?: string; unitOption?: string } = { lifeUnit: 'years' }): StudyError {
   try {
     parseLifeData(text, 'data/test.csv', options);
   } catch (err) {
@@ -19,7 +19,7 @@ function errorOf(text: string, options?: { lifeUnit?: string }): StudyError {
 
 describe('reading life records', () => {
   it('reads the reference file: comments skipped, lines counted', () => {
-    const recs = parseLifeData(readFileSync(BALL_BEARINGS_PATH, 'utf8'), 'ball-bearings.csv');
+    const recs = parseLifeData(readFileSync(BALL_BEARINGS_PATH, 'utf8'), 'ball-bearings.csv', BALL_BEARINGS_UNIT);
     expect(recs.records).toHaveLength(23);
     expect(recs.records[0]).toEqual({ line: 6, life: 17.88, status: 'failed' }); // 4 comment lines, then the header
     expect(recs.records[22]).toEqual({ line: 28, life: 173.4, status: 'failed' });
@@ -32,10 +32,10 @@ describe('reading life records', () => {
       'Life , Status,group,exclude,note',
       '12 years,failed,hoist,,"plain"',
       '8766 h,suspended,hoist,,"a ""quoted"" note, with a comma"',
-      '3,running,brake,,',
-      '4.5,In Service,brake,,"two',
+      '3 years,running,brake,,',
+      '4.5 years,In Service,brake,,"two',
       'lines"',
-      '2,failed,brake,damaged in transport,',
+      '2 years,failed,brake,damaged in transport,',
       '6 months,failed,brake,,',
       '',
     ].join('\r\n');
@@ -60,9 +60,28 @@ describe('reading life records', () => {
   });
 
   it('reads bare lives in the given unit', () => {
-    const recs = parseLifeData('life,status\n876.6,failed\n2 years,failed\n', 'd.csv', { lifeUnit: 'h' });
+    const recs = parseLifeData('life,status\n876.6,failed\n17532,failed\n', 'd.csv', { lifeUnit: 'h' });
     expect(recs.records[0]!.life).toBeCloseTo(0.1, 14); // 876.6 h / 8766 h per year
-    expect(recs.records[1]!.life).toBe(2); // an explicit unit wins
+    expect(recs.records[1]!.life).toBeCloseTo(2, 14);
+    expect(recs.lifeUnit).toBe('h');
+  });
+
+  // Our format (issue 11): the header may name the unit of its bare lives.
+  it.each([
+    ['life_h', 'h'],
+    ['Life_Hours', 'hours'],
+    ['life (days)', 'days'],
+    ['life [years]', 'years'],
+    ['life years', 'years'],
+  ])('header %j gives the unit of bare lives', (header, unit) => {
+    const recs = parseLifeData(`${header},status\n876.6,failed\n`, 'd.csv');
+    expect(recs.lifeUnit).toBe(unit);
+    const perYear = { h: 8766, hours: 8766, days: 365.25, years: 1 }[unit]!;
+    expect(recs.records[0]!.life).toBeCloseTo(876.6 / perYear, 12);
+  });
+
+  it('a header unit and the same unit given by the caller agree', () => {
+    expect(parseLifeData('life_h,status\n8766,failed\n', 'd.csv', { lifeUnit: 'hours' }).records[0]!.life).toBeCloseTo(1, 14);
   });
 
   it('computes life from installation and end dates (days / 365.25)', () => {
@@ -75,7 +94,11 @@ describe('reading life records', () => {
 describe('errors point at the bad field', () => {
   const cases: [string, string, { line: number; col: number }, RegExp][] = [
     ['negative life', 'life,status\n5,failed\n-3,failed\n', { line: 3, col: 1 }, /not positive/],
-    ['zero life', 'life,status\n5,failed\n0 h,failed\n', { line: 3, col: 1 }, /not positive/],
+    ['zero life', 'life,status\n5 h,failed\n0 h,failed\n', { line: 3, col: 1 }, /not positive/],
+    ['bare after united', 'life,status\n5 years,failed\n6,failed\n', { line: 3, col: 1 }, /life 6 is a bare number, but line 2 gives 5 years with one/],
+    ['united after bare', 'life,status\n5,failed\n6 h,failed\n', { line: 3, col: 1 }, /life 6 h is written with a unit, but line 2 gives 5 without one/],
+    ['unknown unit in the header', 'life_parsecs,status\n5,failed\n', { line: 1, col: 1 }, /names unknown unit 'parsecs'/],
+    ['header and caller disagree', 'unit,life (h),status\nA,5,failed\n', { line: 1, col: 6 }, /the header says lives are in 'h', but .* says 'years'/],
     ['unknown status', 'life,status\n5,failed\n6,broken\n', { line: 3, col: 3 }, /unknown status 'broken'/],
     ['empty status', 'life,status\n5,failed\n6,\n', { line: 3, col: 3 }, /status is empty/],
     ['end before install', 'installed,ended,status\n2000,2010,failed\n2012-03,2011-06-30,failed\n', { line: 3, col: 9 }, /before installed/],
@@ -106,6 +129,13 @@ describe('errors point at the bad field', () => {
       expect(e.describe()).toContain(`data/test.csv:${at.line}:${at.col}: `);
     });
   }
+
+  it('a bare life with no unit stated anywhere is an error that says where to state it', () => {
+    const e = errorOf('life,status\n12.5,failed\n', { unitOption: '`--life-unit h`' });
+    expect(e.message).toBe('life 12.5 has no unit, and the file states none');
+    expect(e.at).toEqual({ file: 'data/test.csv', line: 2, col: 1 });
+    expect(e.hint).toMatch(/"life_h".*`--life-unit h`.*"12.5 years"/);
+  });
 
   it('an unknown life unit option is refused', () => {
     expect(errorOf('life,status\n5,failed\n', { lifeUnit: 'parsecs' }).message).toMatch(/unknown life unit/);

@@ -79,7 +79,7 @@ describe('bad studies made at run time', () => {
     return study;
   };
   // Invented life records that fit cleanly when they are inside the study.
-  const records = '# Invented life records (invented numbers).\nlife,status\n12,failed\n20,failed\n31,suspended\n25,failed\n40,failed\n';
+  const records = '# Invented life records (invented numbers).\nlife_years,status\n12,failed\n20,failed\n31,suspended\n25,failed\n40,failed\n';
 
   it('lists exactly the cases this file makes', () => {
     expect(generated.map((c) => c.name).sort()).toEqual(['big-file', 'empty-folder', 'no-such-folder', 'symlink-data-out', 'symlink-study-yaml-out']);

@@ -142,7 +142,7 @@ const KEYS = [
   'gate', 'any', 'all', 'atleast', 'of', 'not', 'model', 'class', 'source', 'assumptions', 'installed', 'renewed', 'on',
   'probability', 'rate', 'exposure', 'repair', 'interval', 'test_duration', 'shape', 'scale', 'location', 'exercise',
   'value', 'fit', 'range', 'uncertainty', 'lognormal', 'median', 'ef', 'note', 'set', 'switch', 'renew', 'data', 'members', 'method', 'beta',
-  'cutoff', 'max_order', 'samples', 'seed', 'horizon', 'max_nodes', 'on_node_budget', 'exercise_basis', 'sensitivity_factor', 'sampling',
+  'cutoff', 'max_order', 'max_cut_sets', 'samples', 'seed', 'horizon', 'max_nodes', 'on_node_budget', 'exercise_basis', 'sensitivity_factor', 'sampling',
 ];
 /** Values to put anywhere. Magnitudes stay within 1e±300 for the reason given at EXTREMES below. */
 const INTERESTING: unknown[] = [
@@ -270,8 +270,12 @@ export function extremeValueCase(): fc.Arbitrary<FuzzCase> {
         return typeof v === 'number' || (typeof v === 'string' && /^\d/.test(v));
       });
       const { parent, key } = numeric[c.pick % numeric.length]!;
-      if (Array.isArray(parent)) parent[key as number] = c.value;
-      else put(parent, key as string, c.value);
+      // A number put where a duration or rate was keeps that unit (a bare one is refused by design).
+      const old = (parent as Record<string | number, unknown>)[key];
+      const unit = typeof old === 'string' ? /^[-+0-9.eE]+\s+(\/?\s*[A-Za-z]+)$/.exec(old)?.[1] : undefined;
+      const value = unit !== undefined && typeof c.value === 'number' ? `${c.value} ${unit}` : c.value;
+      if (Array.isArray(parent)) parent[key as number] = value;
+      else put(parent, key as string, value);
     }
     return { 'study.yaml': stringify(root), 'assumptions.md': BASE_FILES['assumptions.md']! };
   });

@@ -208,7 +208,7 @@ scope: |
   <script>window.__pwned=6</script>
 settings: { cutoff: 0 }
 tops:
-  "<img src=x onerror=window.__pwned=7>": { title: "{{{raw}}} <b onmouseover=window.__pwned=8>top</b>", gate: g-top }
+  t7: { title: "<img src=x onerror=window.__pwned=7> {{{raw}}} <b onmouseover=window.__pwned=8>top</b>", gate: g-top }
 gates:
   g-top: { title: "</text><script>window.__pwned=9</script>", any: [e1, e2] }
 events:

@@ -89,6 +89,74 @@ describe('minimal cut sets vs brute force', () => {
     );
   });
 
+  it('keeps the most probable sets up to maxSets and accounts for the rest (exactly, or as upper bounds)', () => {
+    // Oracle: brute-force enumeration (oracle.ts). Kept = the maxSets most probable of the sets that
+    // meet the cutoff and order limit; near-ties (one part in 10^9, CAP_TIE_TOLERANCE) may trade places.
+    const arb = graphWithProbabilities({ maxVars: 10, maxGates: 10, negation: true }).chain((x) =>
+      fc
+        .record({
+          maxSets: fc.integer({ min: 1, max: 12 }),
+          maxOrder: fc.integer({ min: 1, max: 6 }),
+          budget: fc.constantFrom(0, 3, undefined),
+        })
+        .map((o) => ({ ...x, ...o })),
+    );
+    fc.assert(
+      fc.property(arb, ({ graph, p, maxSets, maxOrder, budget }) => {
+        const c = compile(graph);
+        const top = graph.gates.length - 1;
+        const eligible = bruteSorted(graph, top, p).filter((s) => s.vars.length <= maxOrder);
+        const r = minimalCutSets(c.manager, c.gateRoots[top]!, p, { maxOrder, maxSets, truncationBudget: budget });
+        const want = eligible.slice(0, maxSets);
+        expect(r.sets.length).toBe(want.length);
+        const eligibleKeys = new Set(eligible.map(key));
+        r.sets.forEach((s, i) => {
+          expect(eligibleKeys.has(key(s))).toBe(true);
+          expect(Math.abs(s.probability - want[i]!.probability)).toBeLessThanOrEqual(2e-9 * want[i]!.probability);
+        });
+        const keptSum = r.sets.reduce((a, s) => a + s.probability, 0);
+        const restSum = eligible.reduce((a, s) => a + s.probability, 0) - keptSum;
+        const rest = eligible.length - r.sets.length;
+        if (budget === undefined) expect(r.cappedExact).toBe(true);
+        if (r.cappedExact) {
+          expect(r.capped).toBe(rest);
+          expect(Math.abs(r.cappedProbability - restSum)).toBeLessThanOrEqual(1e-12);
+        } else {
+          expect(r.capped).toBeGreaterThanOrEqual(rest);
+          expect(r.cappedProbability).toBeGreaterThanOrEqual(restSum - 1e-12);
+        }
+      }),
+      { numRuns: 300, seed: 109 },
+    );
+  });
+
+  it('caps 10^8 equally probable sets without enumerating them', () => {
+    // Invented example: four trains of 100 parts each, every part 2e-3. The minimal cut sets are
+    // one part from each train: 100^4 = 10^8 of them, each 2e-3^4, summing to (100·2e-3)^4
+    // (common practice, no source: the product of the trains' sums).
+    const parts = 100;
+    const variables = Array.from({ length: 4 * parts }, (_, i) => `t${Math.floor(i / parts)}-p${i % parts}`);
+    const graph: LogicGraph = {
+      variables,
+      gates: [
+        { id: 'all', op: 'and', inputs: [1, 2, 3, 4].map((index) => ({ kind: 'gate', index }) as const) },
+        ...[0, 1, 2, 3].map((t) => ({
+          id: `train-${t}`,
+          op: 'or' as const,
+          inputs: Array.from({ length: parts }, (_, i) => ({ kind: 'var', index: t * parts + i }) as const),
+        })),
+      ],
+    };
+    const p = new Float64Array(4 * parts).fill(2e-3);
+    const c = compile(graph);
+    const r = minimalCutSets(c.manager, c.gateRoots[0]!, p, { cutoff: 1e-12, maxOrder: 8, maxSets: 1000 });
+    expect(r.sets.length).toBe(1000);
+    r.sets.forEach((s) => expect(s.vars.length).toBe(4));
+    expect(r.capped).toBe(1e8 - 1000);
+    const each = 2e-3 ** 4;
+    expect(r.cappedProbability).toBeCloseTo((1e8 - 1000) * each, 15);
+  });
+
   it('reports a lower bound when the counting budget runs out', () => {
     const n = 14;
     // Invented example: 7-out-of-14 voting has C(14,7) = 3432 minimal cut sets of order 7.

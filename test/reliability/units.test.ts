@@ -38,7 +38,6 @@ describe('parseDuration', () => {
     ['1e3 h', 1000 / 8766],
     ['30 min', 30 / (8766 * 60)],
     ['.5 year', 0.5],
-    ['4', 4], // bare number: years
   ])('%s', (text, years) => {
     const r = parseDuration(text);
     expect(r.ok).toBe(true);
@@ -46,9 +45,16 @@ describe('parseDuration', () => {
     if (r.ok) expect(r.written).toBe(text);
   });
 
-  it('a number is years and keeps its text', () => {
-    expect(parseDuration(5)).toEqual({ ok: true, value: 5, written: '5' });
-    expect(parseDuration(0.25)).toEqual({ ok: true, value: 0.25, written: '0.25' });
+  // A bare number once meant years; a repair time meant in hours silently became years (issue 11).
+  it('refuses a number without its unit, and says it is bare', () => {
+    for (const input of [5, 0.25, '4', ' 2e-3 ', '-1']) {
+      const r = parseDuration(input);
+      expect(r.ok).toBe(false);
+      if (!r.ok) {
+        expect(r.bare).toBe(true);
+        expect(r.message).toBe(`${String(input).trim()} has no unit`);
+      }
+    }
   });
 
   it('the constants are the Julian year', () => {
@@ -77,7 +83,7 @@ describe('parseDuration', () => {
     for (const bad of [NaN, Infinity]) {
       const r = parseDuration(bad);
       expect(r.ok).toBe(false);
-      if (!r.ok) expect(r.expected).toContain('a duration such as "8 h", "3 days" or "0.5 year"');
+      if (!r.ok) expect(r.expected).toContain('a duration with its unit, such as "8 h", "3 days" or "0.5 year"');
     }
     expect(parseDuration('1e999 h').ok).toBe(false);
   });
@@ -93,7 +99,6 @@ describe('parseRate', () => {
     ['3 /day', 3 * 365.25],
     ['0.1 /month', 1.2], // 0.1 per month × 12 months
     ['1 /week', 365.25 / 7],
-    ['2e-3', 2e-3], // bare number: per year
     ['0.5 PER YEAR', 0.5],
   ])('%s', (text, perYear) => {
     const r = parseRate(text);
@@ -105,8 +110,12 @@ describe('parseRate', () => {
     }
   });
 
-  it('a number is per year', () => {
-    expect(parseRate(7)).toEqual({ ok: true, value: 7, written: '7' });
+  it('refuses a number without its unit, and says it is bare', () => {
+    for (const input of [7, '2e-3']) {
+      const r = parseRate(input);
+      expect(r.ok).toBe(false);
+      if (!r.ok) expect(r.bare).toBe(true);
+    }
   });
 
   it.each([

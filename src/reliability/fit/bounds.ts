@@ -44,12 +44,32 @@ export function checkLevel(level: number): void {
   }
 }
 
-/** Covariance of (ln β, ln η) from the observed information; undefined when that is not positive definite. */
+/**
+ * Covariance of (ln β, ln η) from the observed information; undefined when that is not positive
+ * definite. The information J·(−H)·J is formed directly in unit-free terms, z = β·ln(t/η) and
+ * u = e^z, with r failures:
+ *   I_aa = r + Σ u z²,   I_ab = β (r − Σ u − Σ u z),   I_bb = β ((β + 1) Σ u − r)
+ * (the likelihood.ts second derivatives multiplied out by β², βη and η²; the η's cancel). Forming
+ * the (β, η) Hessian and scaling by η² instead under- or overflowed for lives beyond about 1e±154;
+ * in this form lives and scale enter only as t/η, so the result is the same at any scale.
+ */
 export function logCovariance(data: readonly LifeObservation[], shape: number, scale: number): Matrix2 | undefined {
-  const { hessian } = likelihoodParts(data, shape, scale);
-  const a = -hessian[0][0] * shape * shape;
-  const b = -hessian[0][1] * shape * scale;
-  const d = -hessian[1][1] * scale * scale;
+  let r = 0;
+  let sumU = 0;
+  let sumUZ = 0;
+  let sumUZ2 = 0;
+  for (const obs of data) {
+    if (obs.time <= 0) continue; // suspended before the location: no contribution
+    const z = shape * Math.log(obs.time / scale);
+    const u = Math.exp(z);
+    if (obs.failed) r += 1;
+    sumU += u;
+    sumUZ += u * z;
+    sumUZ2 += u * z * z;
+  }
+  const a = r + sumUZ2;
+  const b = shape * (r - sumU - sumUZ);
+  const d = shape * ((shape + 1) * sumU - r);
   const det = a * d - b * b;
   if (!(a > 0 && d > 0 && det > 0)) return undefined;
   return [

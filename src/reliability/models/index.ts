@@ -7,8 +7,8 @@
  */
 import type { ModelKind } from '../../study/types.js';
 import { fixedProbability, rateProbability, repairableUnavailability, switchProbability } from './simple.js';
-import { demandProbability, testedUnavailability } from './tested.js';
-import { weibullEventProbability } from './weibull.js';
+import { demandProbability, hiddenFailureFraction, testedUnavailability } from './tested.js';
+import { weibullConditionalFailure, weibullEventProbability, weibullHazard } from './weibull.js';
 
 export * from './simple.js';
 export * from './tested.js';
@@ -65,4 +65,39 @@ export function modelProbability(
       if (context.on === undefined) throw new Error("model 'switch' needs its state (context.on)");
       return switchProbability(context.on);
   }
+}
+
+/**
+ * Why a model's value was capped or is degenerate, in words; undefined when it was not. The models
+ * keep a probability within [0, 1] by capping, and a value capped at 1 looks like a result; the
+ * analysis turns each note into a `probability-capped` warning so the cap is never silent.
+ */
+export function modelCapNote(model: ModelKind, values: Readonly<Record<string, number>>, context: ModelContext = {}): string | undefined {
+  if (model === 'tested') {
+    const rate = values['rate']!;
+    const interval = values['interval']!;
+    const x = rate * interval;
+    const test = values['test_duration'] ?? 0;
+    const repair = values['repair'] ?? 0;
+    const sum = hiddenFailureFraction(x) + test / interval + (-Math.expm1(-x) * repair) / interval;
+    if (!(sum > 1)) return undefined;
+    if (test >= interval) return `the test lasts as long as its interval or longer (test_duration ≥ interval), so the unavailability is 1`;
+    return `the unavailability terms add up to ${Number(sum.toPrecision(4))}, above 1; the probability is capped at 1`;
+  }
+  if (model === 'weibull' && values['repair'] !== undefined && values['repair'] > 0) {
+    const age = context.ageYears ?? 0;
+    const shape = values['shape']!;
+    const scale = values['scale']!;
+    const location = values['location'] ?? 0;
+    const exercise = values['exercise'];
+    if (exercise === undefined || exercise === 0) {
+      if (weibullHazard(age, shape, scale, location) === Infinity) {
+        return `at age ${age === 0 ? '0' : Number(age.toPrecision(4))} a shape below 1 has an infinite hazard, so the repaired form gives probability exactly 1 (it falls quickly with age)`;
+      }
+      return undefined;
+    }
+    const found = weibullConditionalFailure(age, exercise, shape, scale, location) / exercise;
+    if (found * values['repair'] > 1) return `the repair term (failures found per unit time × repair time = ${Number((found * values['repair']).toPrecision(4))}) is above 1 and is capped at 1`;
+  }
+  return undefined;
 }

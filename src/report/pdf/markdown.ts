@@ -13,14 +13,20 @@ type Inline = { text: string | Inline[]; bold?: boolean; italics?: boolean; styl
 
 const md = markdownRenderer();
 
+/**
+ * Lists nested deeper than this are printed at this depth (their items stay, the indent stops):
+ * each pdfmake list level adds a listener per line, and a page is no wider past eight indents.
+ */
+export const MAX_LIST_DEPTH = 8;
+
 export function markdownToPdf(source: string): Content[] {
   const tokens = md.parse(source, {});
-  const [content] = blocks(tokens, 0, tokens.length);
+  const [content] = blocks(tokens, 0, tokens.length, 0);
   return content;
 }
 
 /** Converts tokens[from, to) into block content; returns the content and the index reached. */
-function blocks(tokens: Token[], from: number, to: number): [Content[], number] {
+function blocks(tokens: Token[], from: number, to: number, depth: number): [Content[], number] {
   const out: Content[] = [];
   let i = from;
   while (i < to) {
@@ -45,19 +51,20 @@ function blocks(tokens: Token[], from: number, to: number): [Content[], number] 
         let j = i + 1;
         while (j < close) {
           const itemClose = matching(tokens, j);
-          const [itemContent] = blocks(tokens, j + 1, itemClose);
+          const [itemContent] = blocks(tokens, j + 1, itemClose, depth + 1);
           items.push(itemContent.length === 1 ? itemContent[0]! : ({ stack: itemContent } as Content));
           j = itemClose + 1;
         }
         const ordered = t.type === 'ordered_list_open';
         const start = Number(t.attrGet('start') ?? '1');
-        out.push((ordered ? { ol: items, start, style: 'list' } : { ul: items, style: 'list' }) as Content);
+        if (depth >= MAX_LIST_DEPTH) out.push({ stack: items } as Content);
+        else out.push((ordered ? { ol: items, start, style: 'list' } : { ul: items, style: 'list' }) as Content);
         i = close + 1;
         break;
       }
       case 'blockquote_open': {
         const close = matching(tokens, i);
-        const [inner] = blocks(tokens, i + 1, close);
+        const [inner] = blocks(tokens, i + 1, close, depth + 1);
         out.push({ stack: inner, style: 'quote' } as Content);
         i = close + 1;
         break;
@@ -114,7 +121,26 @@ function table(tokens: Token[], from: number, to: number): Content {
   } as Content;
 }
 
+/**
+ * Styled pieces laid out per paragraph; past this the rest of the paragraph is one plain piece
+ * (same words, no emphasis). pdfmake's layout slows sharply with tens of thousands of pieces in
+ * one paragraph, and no honest paragraph has a thousand.
+ */
+export const MAX_INLINE_PIECES = 1000;
+
 function inlines(children: Token[]): Inline[] {
+  const out = styledInlines(children);
+  if (out.length <= MAX_INLINE_PIECES) return out;
+  const rest = out.splice(MAX_INLINE_PIECES - 1);
+  out.push({ text: rest.map(plainText).join('') });
+  return out;
+}
+
+function plainText(piece: Inline): string {
+  return typeof piece.text === 'string' ? piece.text : piece.text.map(plainText).join('');
+}
+
+function styledInlines(children: Token[]): Inline[] {
   const out: Inline[] = [];
   let bold = 0;
   let italics = 0;

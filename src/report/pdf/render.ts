@@ -4,6 +4,7 @@ import { FONT_FILES } from '../assets.js';
 import { PAGES, contentBox, pdfPageSize } from '../paper.js';
 import type { Appendix, Block, CalloutBlock, FigureBlock, KeyValueBlock, PreBlock, Run, Section, TableBlock } from '../view.js';
 import { markdownToPdf } from './markdown.js';
+import { breakLongWordsIn } from './long-words.js';
 
 /**
  * The appendix as PDF through pdfmake: embedded Roboto, a bookmark (outline) entry per section and
@@ -31,7 +32,7 @@ const TONE: Record<CalloutBlock['tone'], { edge: string; fill: string }> = {
 
 export async function renderPdf(view: Appendix): Promise<Buffer> {
   prepare();
-  const doc = pdfmake.createPdf(documentDefinition(view));
+  const doc = pdfmake.createPdf(breakLongWordsIn(documentDefinition(view)));
   return doc.getBuffer();
 }
 

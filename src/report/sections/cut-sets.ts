@@ -42,6 +42,15 @@ function topBlocks(top: TopResult, nextTable: () => string): Block[] {
         (s.truncated_probability !== undefined ? `, with a total probability of ${formatProbability(s.truncated_probability)}.` : '.')
       : 'None was dropped by the cutoff or the order limit.',
   ];
+  if (s.capped) {
+    // The cap (settings.max_cut_sets) keeps memory bounded; the rest are counted and summed, or bounded.
+    const atMost = s.capped_exact ? '' : 'at most ';
+    counts.push(
+      ` Only the ${formatCount(s.listed)} most probable were kept (settings.max_cut_sets = ${formatCount(s.max_cut_sets ?? s.listed)}): ` +
+        `${atMost}${formatCount(s.capped)} more at or above the cutoff were left out, with a total probability of ${atMost}${formatProbability(s.capped_probability ?? 0)}; ` +
+        'the rare-event and MCUB values cover the kept sets only, the exact value all of them.',
+    );
+  }
   return [
     subheading(anchor('cuts', top.id), `${top.id} — ${top.title}`),
     para(...counts),

@@ -3,6 +3,9 @@ import { col, para, row, table } from '../blocks.js';
 import type { BuildContext, SectionRule } from '../context.js';
 import { formatAge, formatDuration, formatProbability, formatQuantity } from '../format.js';
 
+/** Beside a probability whose age lies beyond the data of its fit (results `extrapolated`). */
+const EXTRAPOLATED_MARK = '†';
+
 /** Fields shown in their own column rather than among the other parameters. */
 const INTERVAL_FIELDS = ['exercise', 'interval'];
 
@@ -28,7 +31,7 @@ export const events: SectionRule = (results, ctx) => {
         parameterText(e, ctx),
         e.age_years !== undefined ? formatAge(e.age_years) : '—',
         intervalText(e),
-        e.model === 'switch' ? (e.on ? 'on (1)' : 'off (0)') : formatProbability(e.probability),
+        e.model === 'switch' ? (e.on ? 'on (1)' : 'off (0)') : `${formatProbability(e.probability)}${e.extrapolated ? ` ${EXTRAPOLATED_MARK}` : ''}`,
         sourceText(e, ctx),
       ],
       {
@@ -37,6 +40,12 @@ export const events: SectionRule = (results, ctx) => {
       },
     ),
   );
+  const extrapolated = results.events.filter((e) => e.extrapolated);
+  const markNote = extrapolated.length
+    ? ` ${EXTRAPOLATED_MARK} Extrapolated: the event is older than every life, failed or suspended, in the records behind its fit (${extrapolated
+        .map((e) => `${e.id}: ${formatAge(e.extrapolated!.age_years)} against lives up to ${formatAge(e.extrapolated!.data_max_years)} in fit ${e.extrapolated!.fit}`)
+        .join('; ')}).`
+    : '';
   return {
     id: 'sec-events',
     number: ctx.number,
@@ -64,7 +73,7 @@ export const events: SectionRule = (results, ctx) => {
         ],
         rows,
         sortable: true,
-        note: 'Flagged rows use at least one number that cites no source (named after "unsourced:"); see the parameter provenance register.',
+        note: `Flagged rows use at least one number that cites no source (named after "unsourced:"); see the parameter provenance register.${markNote}`,
       }),
     ],
   };

@@ -72,6 +72,7 @@ export const importance: SectionRule = (results, ctx) => {
         sortedBy: { column: 0, descending: false },
       }),
     );
+    if (top.no_effect) blocks.push(para(`Not listed (${top.no_effect.events.join(', ')}): ${top.no_effect.note}.`));
   }
   return { id: 'sec-importance', number: ctx.number, title: 'Importance measures', newPage: true, blocks };
 };

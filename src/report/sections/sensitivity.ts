@@ -22,7 +22,8 @@ export const sensitivity: SectionRule = (results, ctx) => {
   const blocks: Block[] = [
     para(
       'Each parameter that a basic event reads was moved on its own to the low end and then to the high end of its ',
-      'stated range — or, where the study states no range, divided and multiplied by the study’s sensitivity factor ',
+      'stated range — or, where the study states no range, over its life-data fit’s bounds for a fitted shape or scale, ',
+      'and otherwise divided and multiplied by the study’s sensitivity factor ',
       `(${typeof factor === 'number' ? formatNumber(factor) : String(factor)}; a probability is capped at 1) — with every other `,
       'parameter at its value, and the top events quantified again. The swing is the top-event probability with the ',
       'parameter high minus that with it low: a negative swing means a larger value makes failure less likely (a longer ',
@@ -90,9 +91,9 @@ function topBlocks(results: Results, s: SensitivityResult, ctx: BuildContext): B
               formatProbability(t.low),
               formatProbability(t.high),
               formatProbability(t.swing),
-              ctx.parametersByKey.get(t.key)?.range ? 'range' : 'factor',
+              t.range_basis,
             ],
-            { sortKeys: [n + 1, t.key, t.low_value, t.high_value, t.low, t.high, t.swing, ctx.parametersByKey.get(t.key)?.range ? 'range' : 'factor'] },
+            { sortKeys: [n + 1, t.key, t.low_value, t.high_value, t.low, t.high, t.swing, t.range_basis] },
           ),
         ),
         sortable: true,
