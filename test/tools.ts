@@ -7,10 +7,12 @@ import { existsSync } from 'node:fs';
 
 export const CHROMIUM = '/usr/bin/chromium';
 export const PDFTOTEXT = '/usr/bin/pdftotext';
+export const XMLLINT = '/usr/bin/xmllint';
 
 const INSTALL: Record<string, string> = {
   [CHROMIUM]: 'apt-get install -y chromium',
   [PDFTOTEXT]: 'apt-get install -y poppler-utils',
+  [XMLLINT]: 'apt-get install -y libxml2-utils',
 };
 
 /** True when the tool is there; false (with a warning) when it is not and this is not CI; throws under CI. */

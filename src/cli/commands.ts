@@ -3,7 +3,9 @@ import type { Command } from './io.js';
 import { archiveCommand } from './archive.js';
 import { checkCommand } from './check.js';
 import { compareCommand } from './compare.js';
+import { exportCommand } from './export.js';
 import { fitCommand } from './fit.js';
+import { importCommand } from './import.js';
 import { newCommand } from './new.js';
 import { runCommand } from './run.js';
 import { verifyCommand } from './verify.js';
@@ -16,4 +18,6 @@ export const commands: Record<string, { summary: string; run: Command }> = {
   compare: compareCommand,
   archive: archiveCommand,
   verify: verifyCommand,
+  export: exportCommand,
+  import: importCommand,
 };

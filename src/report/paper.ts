@@ -18,10 +18,11 @@ export const PAGES: Record<Paper, PageGeometry> = {
   letter: { width: 8.5 * 72, height: 11 * 72, margins: [54, 60, 54, 52] },
 };
 
-/** The printable area of a page, in points. */
-export function contentBox(paper: Paper): { width: number; height: number } {
+/** The printable area of a page, in points; a landscape page (turned, same margins) for wide figures. */
+export function contentBox(paper: Paper, orientation: 'portrait' | 'landscape' = 'portrait'): { width: number; height: number } {
   const p = PAGES[paper];
-  return { width: p.width - p.margins[0] - p.margins[2], height: p.height - p.margins[1] - p.margins[3] };
+  const [w, h] = orientation === 'landscape' ? [p.height, p.width] : [p.width, p.height];
+  return { width: w - p.margins[0] - p.margins[2], height: h - p.margins[1] - p.margins[3] };
 }
 
 /** What CSS `@page size` calls the paper. */

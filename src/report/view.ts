@@ -88,6 +88,8 @@ export interface FigureBlock {
   number: string;
   caption: string;
   parts: FigurePart[];
+  /** Printed on a landscape page (a logic diagram wider than a portrait page). */
+  landscape?: boolean;
   /** Short line under the caption (e.g. where a continued subtree is referenced from). */
   note?: string;
 }

@@ -58,20 +58,20 @@ function describePath(path: PathSegment[], file: YamlFile): string {
  * specific error per instance path: an unknown key beats a type mismatch beats "no branch matched".
  */
 function translate(errors: ErrorObject[], file: YamlFile): StudyError[] {
-  const rank: Record<string, number> = { maxProperties: -1, additionalProperties: 0, required: 1, enum: 2, const: 2, pattern: 3, type: 4, minimum: 5, maximum: 5 };
+  const rank: Record<string, number> = { additionalProperties: 0, required: 1, enum: 2, const: 2, pattern: 3, type: 4, minimum: 5, maximum: 5, maxProperties: 6 };
   // A duration or rate written without its unit: the reader says so with the field and the likely
   // units, far better than "not a valid parameter", so every complaint at that place is left to it.
   const unitless = new Set(errors.filter((e) => /\/(durationText|rateText)\//.test(e.schemaPath) || /#\/definitions\/(durationText|rateText)$/.test(e.schemaPath.replace(/\/(type|pattern)$/, ''))).map((e) => e.instancePath));
   const byPath = new Map<string, ErrorObject>();
   const badIds: StudyError[] = [];
   for (const e of errors) {
-    if (unitless.has(e.instancePath) || [...unitless].some((p) => e.instancePath === p.slice(0, p.lastIndexOf('/')) && e.keyword === 'oneOf')) continue;
     // A key that breaks the id rule (propertyNames): one error per key, at the key itself.
     if (e.keyword === 'propertyNames') continue;
     if (e.propertyName !== undefined) {
       badIds.push(badIdError(e.propertyName, pathOf(e.instancePath), file));
       continue;
     }
+    if (unitless.has(e.instancePath) || [...unitless].some((p) => e.instancePath === p.slice(0, p.lastIndexOf('/')) && e.keyword === 'oneOf')) continue;
     const key = e.instancePath;
     const prev = byPath.get(key);
     if (!prev || (rank[e.keyword] ?? 9) < (rank[prev.keyword] ?? 9)) byPath.set(key, e);

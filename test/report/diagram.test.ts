@@ -13,7 +13,10 @@ import { bigTreeResults, wideGateResults } from './synthetic.js';
 
 function figuresOf(results: Results, paper: Paper = 'a4'): FigureBlock[] {
   let n = 0;
-  return logicFigures(results, paper, () => `Figure 5.${++n}`);
+  let t = 0;
+  return logicFigures(results, paper, { nextFigure: () => `Figure 5.${++n}`, nextTable: () => `Table 5.${++t}` }).filter(
+    (b): b is FigureBlock => b.kind === 'figure',
+  );
 }
 
 /** data-node entries of every logic figure (the legend has none). */
@@ -96,10 +99,10 @@ describe('logic diagrams', () => {
     }
   });
 
-  it('keeps every figure within the printable area of the paper', () => {
+  it('keeps every figure within the printable area of the paper (landscape ones of a landscape page)', () => {
     for (const paper of ['a4', 'letter'] as const) {
-      const box = contentBox(paper);
       for (const f of [...figuresOf(bigTreeResults(6, 3), paper), ...figuresOf(fixtureResults(), paper)]) {
+        const box = contentBox(paper, f.landscape ? 'landscape' : 'portrait');
         for (const p of f.parts) {
           expect(p.width, f.id).toBeLessThanOrEqual(box.width);
           expect(p.height, f.id).toBeLessThanOrEqual(box.height - G.captionAllowance);
@@ -108,19 +111,22 @@ describe('logic diagrams', () => {
     }
   });
 
-  it('cuts a gate with more inputs than even a stack holds on one page into page-wide parts', () => {
-    // 24 leaf inputs: more than the stacked columns one A4 page holds (checked here, not assumed).
+  it('draws a gate with more inputs than one page of stacked inputs holds in page parts, each input once', () => {
+    // 40 leaf inputs: more than the stacked block one A4 page holds (checked here, not assumed).
     const capacity = capacityFor('a4');
-    expect(stackFor(24, capacity, false)).toBeNull();
-    const figs = figuresOf(wideGateResults(24));
+    expect(stackFor(40, capacity, false)).toBeNull();
+    const figs = figuresOf(wideGateResults(40));
     const wide = figs.find((f) => f.id !== 'fig-legend')!;
-    const perPage = capacityFor('a4').columns;
-    expect(wide.parts).toHaveLength(Math.ceil(24 / perPage));
-    for (const p of wide.parts) expect(p.width).toBeLessThanOrEqual(contentBox('a4').width);
-    // The parts are windows on one drawing: their viewBoxes tile it left to right.
-    const xs = wide.parts.map((p) => Number(/viewBox="([\d.]+) /.exec(p.svg)![1]));
-    expect(xs).toEqual([...xs].sort((a, b) => a - b));
-    expect(new Set(xs).size).toBe(xs.length);
+    expect(wide.parts.length).toBeGreaterThan(1);
+    for (const p of wide.parts) {
+      expect(p.width).toBeLessThanOrEqual(contentBox('a4').width);
+      expect(p.height).toBeLessThanOrEqual(contentBox('a4').height - G.captionAllowance);
+    }
+    // Each part draws only its own inputs (no window on one whole drawing): every input once in all.
+    const drawn = wide.parts.flatMap((p) => svgNodes(p.svg).filter((n) => n.kind === 'event').map((n) => n.node));
+    expect(drawn.sort()).toEqual(Array.from({ length: 40 }, (_, i) => `wide-${i + 1}`).sort());
+    // And each part shows the gate its inputs belong to.
+    for (const p of wide.parts) expect(svgNodes(p.svg).some((n) => n.node === 'wide-or' && n.kind === 'gate')).toBe(true);
   });
 });
 
@@ -245,9 +251,11 @@ describe('stacked inputs (a gate of many leaf inputs)', () => {
       expected.forEach((p, i) => {
         if (p) expect(nodes.find((n) => n.node === `wide-${i + 1}`)!.text, `wide-${i + 1}`).toContain(`P = ${p}`);
       });
-      // The CCF member prints its own total and keeps its mark; the switch stays a house event.
+      // The CCF member prints its own total, labelled, its independent part under it, and keeps
+      // its mark; the switch stays a house event.
       const ccf = nodes.find((n) => n.node === 'wide-4')!;
-      expect(ccf.text).toContain('P = 7.50E-04');
+      expect(ccf.text).toContain('total P = 7.50E-04');
+      expect(ccf.text).toContain('independent 4.40E-04');
       expect(ccf.text).toContain('CCF');
       expect(ccf.text).toContain('group wide-ccf');
       expect(wide.parts[0]!.svg).toMatch(/data-node="wide-4"[^>]*data-common-cause="wide-ccf"/);

@@ -1,11 +1,17 @@
-import { D3Node, type D3Selection } from 'd3-node';
+import type { D3Selection } from 'd3-node';
 
 /**
- * A blank SVG drawing surface (d3-node: d3 on a server-side DOM) and its serialisation.
+ * A blank SVG drawing surface and its serialisation.
  *
  * Every figure of the appendix is drawn through here, so they share the conventions both outputs
  * need: sizes in points with a matching viewBox (1 unit = 1 pt), the embedded Roboto font, and
  * presentation attributes only (the PDF's SVG converter ignores CSS).
+ *
+ * The drawing is a plain element tree with d3's chainable `append`/`attr`/`text` (the part of a
+ * d3 selection the figures use), written out by `serialize` with text and attribute values
+ * escaped. It replaced a server-side DOM (d3-node): building that DOM cost about a millisecond an
+ * element, which made a large study's diagrams take minutes, and its HTML serialiser could not
+ * produce XML.
  */
 export const FONT_FAMILY = 'Roboto, Helvetica, Arial, sans-serif';
 
@@ -22,58 +28,109 @@ export interface Canvas {
   height: number;
 }
 
-/**
- * One server-side DOM for every drawing: building a DOM costs more than drawing a small figure,
- * and each drawing is detached from it as soon as it is serialised, so drawings never meet.
- */
-let shared: D3Node | undefined;
+/** One element of a drawing. */
+class SvgElement implements D3Selection {
+  readonly attributes: [string, string][] = [];
+  children: (SvgElement | string)[] = [];
+  parent: SvgElement | null = null;
+
+  constructor(readonly name: string) {}
+
+  append(name: string): SvgElement {
+    const child = new SvgElement(name);
+    child.parent = this;
+    this.children.push(child);
+    return child;
+  }
+
+  attr(name: string, value: string | number): SvgElement {
+    const text = String(value);
+    const at = this.attributes.findIndex((a) => a[0] === name);
+    if (at >= 0) this.attributes[at]![1] = text;
+    else this.attributes.push([name, text]);
+    return this;
+  }
+
+  text(value: string): SvgElement {
+    this.children = [String(value)];
+    return this;
+  }
+
+  remove(): SvgElement {
+    if (this.parent) this.parent.children = this.parent.children.filter((c) => c !== this);
+    this.parent = null;
+    return this;
+  }
+
+  node(): { outerHTML: string } {
+    return { outerHTML: write(this) };
+  }
+}
 
 export function createCanvas(width: number, height: number, label: string): Canvas {
   const w = round(width);
   const h = round(height);
-  shared ??= new D3Node();
-  const svg = shared.createSVG(undefined, undefined, {
-    width: `${w}pt`,
-    height: `${h}pt`,
-    viewBox: `0 0 ${w} ${h}`,
-    'font-family': FONT_FAMILY,
-    role: 'img',
-    'aria-label': label,
-  });
+  const svg = new SvgElement('svg')
+    .attr('xmlns', 'http://www.w3.org/2000/svg')
+    .attr('width', `${w}pt`)
+    .attr('height', `${h}pt`)
+    .attr('viewBox', `0 0 ${w} ${h}`)
+    .attr('font-family', FONT_FAMILY)
+    .attr('role', 'img')
+    .attr('aria-label', label);
   svg.append('title').text(label);
   return { svg, width: w, height: h };
 }
 
 /**
- * The SVG text, well-formed XML as well as HTML. The DOM's HTML serialiser leaves `<` and `>` raw
- * inside attribute values (legal in HTML, not in XML, and the PDF's SVG reader is an XML parser),
- * and writes `&nbsp;`, which XML does not define; both are made numeric or escaped here. Text
- * content is already escaped by the serialiser, so the attribute pass cannot touch it.
- * Serialising detaches the drawing from the shared DOM.
+ * The SVG text, well-formed XML and valid inline HTML alike: every element written out with its
+ * text escaped as text and its attribute values as attribute values, so no title can be read as
+ * markup (a title with `mode="automatic standby"` wrapped over two lines once broke the old
+ * pattern-based fix-up of the DOM's HTML). Characters XML 1.0 forbids become U+FFFD. A canvas is
+ * serialised once.
  */
 export function serialize(canvas: Canvas): string {
-  const element = canvas.svg.node();
-  if (!element) throw new Error('canvas was already serialised');
-  const markup = element.outerHTML;
-  canvas.svg.remove();
-  return markup
-    .replace(/="([^"]*)"/g, (_m, value: string) => `="${value.replace(/</g, '&lt;').replace(/>/g, '&gt;')}"`)
-    .replace(/&nbsp;/g, '&#160;');
+  const root = canvas.svg;
+  if (!(root instanceof SvgElement)) throw new Error('not a canvas of ours');
+  if (serialised.has(root)) throw new Error('canvas was already serialised');
+  serialised.add(root);
+  return write(root);
 }
 
-/**
- * The same drawing seen through a window: a new root tag with another viewBox and size. Used to
- * slice a figure too wide for a page into parts that each print at full size.
- */
-export function windowed(svg: string, x: number, width: number, height: number): string {
-  const w = round(width);
-  const h = round(height);
-  return svg.replace(/^<svg\b[^>]*>/, (tag) =>
-    tag
-      .replace(/\bwidth="[^"]*"/, `width="${w}pt"`)
-      .replace(/\bheight="[^"]*"/, `height="${h}pt"`)
-      .replace(/\bviewBox="[^"]*"/, `viewBox="${round(x)} 0 ${w} ${h}"`),
-  );
+const serialised = new WeakSet<SvgElement>();
+
+/** The element and everything under it as text; an explicit stack, so no depth is too deep. */
+function write(element: SvgElement): string {
+  const out: string[] = [];
+  const stack: (SvgElement | { raw: string })[] = [element];
+  while (stack.length > 0) {
+    const item = stack.pop()!;
+    if (!(item instanceof SvgElement)) {
+      out.push(item.raw);
+      continue;
+    }
+    let open = `<${item.name}`;
+    for (const [name, value] of item.attributes) open += ` ${name}="${escapeAttribute(value)}"`;
+    out.push(`${open}>`);
+    stack.push({ raw: `</${item.name}>` });
+    for (let i = item.children.length - 1; i >= 0; i--) {
+      const c = item.children[i]!;
+      stack.push(typeof c === 'string' ? { raw: escapeText(c) } : c);
+    }
+  }
+  return out.join('');
+}
+
+// XML 1.0 Char production: tab, newline, carriage return and U+0020 up, less surrogates (lone
+// ones) and U+FFFE/U+FFFF.
+const NOT_XML = /[^\t\n\r\u0020-\uD7FF\uE000-\uFFFD\u{10000}-\u{10FFFF}]/gu;
+
+export function escapeText(s: string): string {
+  return s.replace(NOT_XML, '\uFFFD').replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+}
+
+export function escapeAttribute(s: string): string {
+  return escapeText(s).replace(/"/g, '&quot;');
 }
 
 export function round(x: number): number {

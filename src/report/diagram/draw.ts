@@ -74,7 +74,9 @@ function drawPlaced(input: DrawInput, edges: D3Selection, nodes: D3Selection, p:
       ? `house: ${node.on ? 'on (1)' : 'off (0)'}`
       : node.kind === 'missing'
         ? 'P = —'
-        : `P = ${formatProbability(node.probability)}`;
+        : node.kind === 'event' && node.commonCause !== undefined && !node.house
+          ? `total P = ${formatProbability(node.probability)}`
+          : `P = ${formatProbability(node.probability)}`;
   drawBox(g, p.x, p.y, p.node.id, title, probability);
 
   const sw = G.symbolWidth;
@@ -116,7 +118,9 @@ function drawPlaced(input: DrawInput, edges: D3Selection, nodes: D3Selection, p:
       // Marked by letters, not colour: readable in black and white.
       g.attr('data-common-cause', node.commonCause);
       text(g, sx, leafTop + 13.5, 'CCF', 6.5, { weight: 'medium' });
-      text(g, p.x, noteY ?? symbolTop + 22 + 9, `group ${node.commonCause}`, 6.5, { italic: true });
+      const first = noteY ?? symbolTop + 22 + 9;
+      text(g, p.x, first, `group ${node.commonCause}`, 6.5, { italic: true });
+      text(g, p.x, first + 8, `independent ${formatProbability(node.independent)}`, 6.5, { fill: ACCENT });
     }
     return;
   }

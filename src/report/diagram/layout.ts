@@ -17,18 +17,18 @@ export const G = {
   margin: 6,
   column: 94,
   boxWidth: 84,
-  boxHeight: 56,
+  boxHeight: 52,
   stem: 6,
   symbolWidth: 26,
   symbolHeight: 24,
-  busGap: 12,
-  drop: 12,
+  busGap: 8,
+  drop: 8,
   /** The top-event box above the root gate of a top's figure. */
   topWidth: 170,
   topHeight: 48,
   topGap: 14,
   /** Room under a leaf for its symbol and, for transfers, the "see figure" label. */
-  leafExtra: 36,
+  leafExtra: 44,
   /** Room the caption takes on the page, so figure + caption fit. */
   captionAllowance: 46,
 } as const;
@@ -37,11 +37,21 @@ export const LEVEL_HEIGHT = G.boxHeight + G.stem + G.symbolHeight + G.busGap + G
 
 /** How many columns and levels fit the printable area of the paper. */
 export function capacityFor(paper: Paper): Capacity {
-  const box = contentBox(paper);
-  const columns = Math.floor((box.width - 2 * G.margin) / G.column);
-  const free = box.height - G.captionAllowance - 2 * G.margin - (G.topHeight + G.topGap) - (G.boxHeight + G.leafExtra);
-  const levels = 1 + Math.floor(free / LEVEL_HEIGHT);
-  return { columns: Math.max(2, columns), levels: Math.max(2, levels) };
+  const fit = (orientation: 'portrait' | 'landscape', topBox: boolean) => {
+    const box = contentBox(paper, orientation);
+    const columns = Math.floor((box.width - 2 * G.margin) / G.column);
+    const free = box.height - G.captionAllowance - 2 * G.margin - (topBox ? G.topHeight + G.topGap : 0) - (G.boxHeight + G.leafExtra);
+    const levels = 1 + Math.floor(free / LEVEL_HEIGHT);
+    return { columns: Math.max(2, columns), levels: Math.max(2, levels) };
+  };
+  const portrait = fit('portrait', true);
+  const landscape = fit('landscape', true);
+  return {
+    ...portrait,
+    landscape,
+    // A figure with no top-event box over its root (a shared or continued subtree) has that room.
+    withoutTopBox: { levels: fit('portrait', false).levels - portrait.levels, landscapeLevels: fit('landscape', false).levels - landscape.levels },
+  };
 }
 
 /**
@@ -68,7 +78,7 @@ export const STACK = {
   /** Between two rows. */
   rowGap: 6,
   /** The line under a box for a transfer's "see figure" or a CCF member's group. */
-  note: 10,
+  note: 18,
 } as const;
 
 export interface Stack {
@@ -97,15 +107,23 @@ export function stackLevels(s: Stack): number {
   return 1 + Math.max(0, Math.ceil(beyondLeaf / LEVEL_HEIGHT));
 }
 
-/** The stack for a gate with `inputs` leaf inputs, or null when they stay in one row. */
-export function stackFor(inputs: number, capacity: Capacity, noted: boolean): Stack | null {
-  if (inputs <= capacity.columns) return null;
+/** The largest stack one page holds: rows that keep the figure within the page, columns across it. */
+export function pageStack(capacity: Capacity, noted: boolean): { rows: number; columns: number } {
   let rows = 0;
   while (1 + stackLevels({ columns: 1, rows: rows + 1, noted }) <= capacity.levels) rows++;
-  let maxColumns = 0;
-  while (stackSpan({ columns: maxColumns + 1, rows: 1, noted }) <= capacity.columns) maxColumns++;
-  if (rows < 2 || maxColumns < 1 || inputs > rows * maxColumns) return null;
-  const columns = Math.ceil(inputs / rows);
+  let columns = 0;
+  while (stackSpan({ columns: columns + 1, rows: 1, noted }) <= capacity.columns) columns++;
+  return { rows, columns };
+}
+
+/** The stack for a gate with `inputs` leaf inputs, or null when they stay in one row (or need more than a page). */
+export function stackFor(inputs: number, capacity: Capacity, noted: boolean): Stack | null {
+  if (inputs <= capacity.columns) return null;
+  const page = pageStack(capacity, noted);
+  if (page.rows < 2 || page.columns < 1 || inputs > page.rows * page.columns) return null;
+  // As many columns as the page holds, at least two rows each: a wide block is shorter, so the
+  // figure leaves room on its page for the next one.
+  const columns = Math.min(page.columns, Math.ceil(inputs / 2));
   return { columns, rows: Math.ceil(inputs / columns), noted };
 }
 

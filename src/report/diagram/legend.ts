@@ -33,7 +33,7 @@ export function drawLegend(caption: string, width: number): FigurePart {
     },
     {
       name: 'Common-cause member',
-      note: 'its group adds shared failures (P is its own total)',
+      note: 'box: its total P; below: its independent part (shared part: its group)',
       draw: (g, cx, t) => {
         g.append('circle').attr('cx', round(cx)).attr('cy', round(t + 11)).attr('r', 11).attr('fill', '#ffffff').attr('stroke', INK).attr('stroke-width', 0.8);
         text(g, cx, t + 13.5, 'CCF', 6.5, { weight: 'medium' });

@@ -25,8 +25,10 @@ export interface DiagramEvent {
   house: boolean;
   on?: boolean;
   probability?: number;
-  /** Member of this common-cause group: drawn with a mark, its probability its own total. */
+  /** Member of this common-cause group: drawn with a mark, `probability` its own total. */
   commonCause?: string;
+  /** A common-cause member's independent part (what its id stands for in the logic). */
+  independent?: number;
 }
 
 /** An id the logic refers to that neither the gates nor the events define (drawn, not hidden). */
@@ -71,9 +73,10 @@ export function diagramModel(results: Results): DiagramModel {
       house: e.model === 'switch',
       ...(e.on !== undefined ? { on: e.on } : {}),
       // A common-cause member stands in the logic for its independent part; the diagram prints
-      // the component's own total, and the mark says the group adds shared events to it.
+      // the component's own total (labelled so) with the independent part under it, and the mark
+      // says the group adds shared events to it.
       probability: e.common_cause_role === 'independent' && e.total_probability !== undefined ? e.total_probability : e.probability,
-      ...(e.common_cause_role === 'independent' && e.common_cause_group ? { commonCause: e.common_cause_group } : {}),
+      ...(e.common_cause_role === 'independent' && e.common_cause_group ? { commonCause: e.common_cause_group, independent: e.probability } : {}),
     });
   }
   for (const g of results.logic.gates) {

@@ -104,6 +104,9 @@ function stylesheet(view: Appendix): string {
     `@top-left{content:${cssString(header)};font:7.5pt Roboto,sans-serif;color:#4a525c;}`,
     `@bottom-right{content:"Page " counter(page) " of " counter(pages);font:7.5pt Roboto,sans-serif;color:#4a525c;}}`,
     '@page:first{@top-left{content:none;}}',
+    // A logic diagram wider than a portrait page prints on a landscape one (same margins).
+    `@page diagram-landscape{size:${cssPageSize(view.paper)} landscape;}`,
+    '@media print{.figure-landscape{page:diagram-landscape;}}',
   ].join('');
   return [
     face(FONT_FILES.normal, 400, 'normal'),

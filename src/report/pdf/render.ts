@@ -61,8 +61,10 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
   const date = studyDate(view.meta.date);
   const statusText = view.header.status.toUpperCase();
   const content: Content[] = [cover(view)];
+  let landscapeOpen = false;
   for (const section of view.sections) {
-    content.push(sectionContent(section, view));
+    content.push(sectionContent(section, view, landscapeOpen));
+    landscapeOpen = endsLandscape(section);
     if (section.id === 'sec-title-block') content.push(contents());
   }
   return {
@@ -83,7 +85,7 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
     ...(view.cover.draft
       ? { watermark: { text: statusText, color: '#a11d21', opacity: 0.07, bold: true, fontSize: 110 } }
       : {}),
-    header: (currentPage: number) =>
+    header: (currentPage: number, _pageCount: number, pageSize?: { width: number }) =>
       currentPage === 1
         ? ''
         : {
@@ -95,7 +97,7 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
                   { text: `Rev. ${view.header.revision} · ${statusText}`, style: 'running', alignment: 'right', width: 'auto' },
                 ],
               },
-              { canvas: [{ type: 'line', x1: 0, y1: 4, x2: page.width - left - right, y2: 4, lineWidth: 0.5, lineColor: RULE }] },
+              { canvas: [{ type: 'line', x1: 0, y1: 4, x2: (pageSize?.width ?? page.width) - left - right, y2: 4, lineWidth: 0.5, lineColor: RULE }] },
             ],
           },
     footer: (currentPage: number, pageCount: number) => ({
@@ -208,7 +210,13 @@ function contents(): Content {
   } as Content;
 }
 
-function sectionContent(section: Section, view: Appendix): Content {
+/** A section whose last block is printed on a landscape page leaves the next one to turn back. */
+function endsLandscape(section: Section): boolean {
+  const last = section.blocks[section.blocks.length - 1];
+  return last?.kind === 'figure' && last.landscape === true;
+}
+
+function sectionContent(section: Section, view: Appendix, afterLandscape = false): Content {
   const heading: Content = {
     text: section.number ? [{ text: `${section.number}   `, color: ACCENT }, section.title] : section.title,
     style: 'h2',
@@ -222,10 +230,20 @@ function sectionContent(section: Section, view: Appendix): Content {
     canvas: [{ type: 'line', x1: 0, y1: 2, x2: contentBox(view.paper).width, y2: 2, lineWidth: 1.2, lineColor: ACCENT }],
     margin: [0, 0, 0, 8],
   };
-  const body = section.blocks.map((b) => blockContent(b, section, view));
+  // A wide logic diagram takes a landscape page (consecutive ones share landscape pages); the
+  // first block after it starts a new portrait page.
+  const body = section.blocks.map((b, i) => {
+    const content = blockContent(b, section, view);
+    const landscape = b.kind === 'figure' && b.landscape === true;
+    const previous = section.blocks[i - 1];
+    const wasLandscape = previous?.kind === 'figure' && previous.landscape === true;
+    if (landscape && !wasLandscape) return { stack: [content], pageBreak: 'before', pageOrientation: 'landscape' } as Content;
+    if (!landscape && wasLandscape) return { stack: [content], pageBreak: 'before', pageOrientation: 'portrait' } as Content;
+    return content;
+  });
   return {
     stack: [{ stack: [heading, rule], unbreakable: true }, ...body],
-    ...(section.newPage ? { pageBreak: 'before' } : {}),
+    ...(section.newPage || afterLandscape ? { pageBreak: 'before', pageOrientation: 'portrait' } : {}),
   } as Content;
 }
 
@@ -339,7 +357,7 @@ function tableContent(block: TableBlock): Content {
 }
 
 function figureContent(block: FigureBlock, view: Appendix): Content {
-  const box = contentBox(view.paper);
+  const box = contentBox(view.paper, block.landscape ? 'landscape' : 'portrait');
   const maxHeight = box.height - 60;
   const parts = block.parts.map((p, i) => {
     // Scale only when a drawing would not fit (layout arithmetic on its size); diagrams are sized to fit already.

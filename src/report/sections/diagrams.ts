@@ -4,7 +4,7 @@ import { logicFigures } from '../diagram/index.js';
 
 /** The logic diagrams: the symbol key, then one figure per top event and per continued subtree. */
 export const diagrams: SectionRule = (results, ctx) => {
-  const figures = logicFigures(results, ctx.paper, ctx.nextFigure);
+  const figures = logicFigures(results, ctx.paper, { nextFigure: ctx.nextFigure, nextTable: ctx.nextTable });
   if (figures.length === 0) return null;
   return {
     id: 'sec-diagrams',

@@ -10,12 +10,12 @@
  */
 import type { Results } from '../../analysis/results.js';
 import { contentBox } from '../../report/paper.js';
-import { slice } from '../../report/diagram/index.js';
+import { figureParts } from '../../report/diagram/index.js';
 import { drawFigure } from '../../report/diagram/draw.js';
 import { capacityFor, layoutTree } from '../../report/diagram/layout.js';
 import { drawLegend } from '../../report/diagram/legend.js';
 import { diagramModel, type DiagramModel, type DiagramNode } from '../../report/diagram/model.js';
-import { partition } from '../../report/diagram/partition.js';
+import { partition, type TreeNode } from '../../report/diagram/partition.js';
 import type { FigureBlock, Paper } from '../../report/view.js';
 import { reachable } from '../../study/reach.js';
 import type { Comparison } from '../compare.js';
@@ -99,14 +99,9 @@ function hasRemovedBelow(results: Results, marks: Map<string, Mark>, root: strin
 /** The diagram model of one subtree: its gates only, titles carrying the marks, no top-event box. */
 function markedModel(results: Results, marks: Map<string, Mark>, root: string): DiagramModel {
   const base = diagramModel(results);
-  const gateIds: string[] = [];
-  const visit = (id: string) => {
-    const n = base.node(id);
-    if (n.kind !== 'gate' || gateIds.includes(id)) return;
-    gateIds.push(id);
-    for (const i of n.inputs) visit(i);
-  };
-  visit(root);
+  // Iterative (a chain of gates thousands deep is a valid study), in the study's gate order.
+  const under = reachable(results.logic.gates, [root]);
+  const gateIds = results.logic.gates.map((g) => g.id).filter((id) => under.has(id));
   const node = (id: string): DiagramNode => {
     const n = base.node(id);
     const mark = marks.get(id);
@@ -123,12 +118,19 @@ function subtreeFigures(results: Results, marks: Map<string, Mark>, root: string
   const trees = partition(model, capacity);
   const numbers = new Map(trees.map((t, i) => [t.root, { number: nextFigure(), anchor: `fig-${idPrefix}${i === 0 ? '' : `-${t.root}`}`.replace(/[^A-Za-z0-9_-]/g, '_') }]));
   const continuation = (id: string) => numbers.get(id) ?? { number: 'Figure ?', anchor: `fig-${idPrefix}` };
-  const marked = [...marks.entries()].filter(([id]) => model.gateIds.includes(id) || model.gateIds.some((g) => gateHasInput(model, g, id)));
+  const inSubtree = new Set(model.gateIds);
+  for (const g of model.gateIds) {
+    const n = model.node(g);
+    if (n.kind === 'gate') for (const i of n.inputs) inSubtree.add(i);
+  }
+  const marked = [...marks.entries()].filter(([id]) => inSubtree.has(id));
   return trees.map((t, i) => {
     const { number, anchor } = numbers.get(t.root)!;
     const text = i === 0 ? caption : `${caption}: continuation ${t.root}`;
-    const layout = layoutTree(t.tree, false);
-    const svg = drawFigure({ model, layout, caption: `${number}. ${text}`, tops: [], continuation });
+    const draw = (tree: TreeNode) => {
+      const layout = layoutTree(tree, false);
+      return { svg: drawFigure({ model, layout, caption: `${number}. ${text}`, tops: [], continuation }), width: layout.width, height: layout.height };
+    };
     const note =
       i === 0 && marked.length > 0
         ? `Marked: ${marked.map(([id, m]) => `[${m}] ${id}`).join(', ')}.`
@@ -140,13 +142,10 @@ function subtreeFigures(results: Results, marks: Map<string, Mark>, root: string
       id: anchor,
       number,
       caption: text,
-      parts: slice(svg, layout.width, layout.height, layout.columns, capacity.columns),
+      parts: figureParts(t, capacity, model, draw),
+      ...(t.orientation === 'landscape' ? { landscape: true } : {}),
       ...(note ? { note } : {}),
     };
   });
 }
 
-function gateHasInput(model: DiagramModel, gate: string, id: string): boolean {
-  const n = model.node(gate);
-  return n.kind === 'gate' && n.inputs.includes(id);
-}
