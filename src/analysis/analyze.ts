@@ -21,6 +21,8 @@ import type { EventResult, Results } from './results.js';
 export interface AnalyzeOptions {
   /** Called now and then during long analyses (Monte Carlo): what, how far, out of how many. */
   progress?: (label: string, done: number, total: number) => void;
+  /** Threads for the Monte Carlo trials (default 1: this thread only); the numbers never depend on it. */
+  threads?: number;
 }
 
 /** What every stage may read: the study, its logic, the compiled base case and its numbers. */

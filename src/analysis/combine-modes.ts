@@ -26,7 +26,6 @@
  * of dependence between modes beyond the shared load.
  */
 import type { FailureModeSet } from '../study/types.js';
-import { poissonBinomial } from './gate-counts.js';
 
 /** Sum, uni-modal lower and upper bound of the probability that at least one mode occurs. */
 export function uniModalBounds(p: readonly number[]): { sum: number; lower: number; upper: number } {
@@ -44,12 +43,22 @@ export function uniModalBounds(p: readonly number[]): { sum: number; lower: numb
 
 /** The common-cause adjustment (item 4 above): each mode's share of the union under independence. */
 export function commonCauseAdjustment(p: readonly number[]): number[] {
+  const n = p.length;
+  // dist = the Poisson-binomial of the other modes (poissonBinomial's recursion, on one reused array).
+  const dist = new Array<number>(n).fill(0);
   return p.map((pi, i) => {
-    const others = poissonBinomial(p.filter((_, j) => j !== i));
+    dist.fill(0);
+    dist[0] = 1;
+    let m = 0;
+    for (let k = 0; k < n; k++) {
+      if (k === i) continue;
+      const q = p[k]!;
+      for (let j = m + 1; j >= 1; j--) dist[j] = dist[j]! * (1 - q) + dist[j - 1]! * q;
+      dist[0] = dist[0]! * (1 - q);
+      m += 1;
+    }
     let share = 0;
-    others.forEach((pc, c) => {
-      share += pc / (c + 1);
-    });
+    for (let c = 0; c < n; c++) share += dist[c]! / (c + 1);
     return pi * share;
   });
 }
@@ -77,25 +86,50 @@ export function modeNumbers(
   outcomeByRange: (outcome: string) => readonly number[],
   value: (key: string) => number,
 ): ModeNumbers {
+  // Plain loops (this runs in every Monte Carlo trial); the arithmetic is the formulas above, in a fixed order.
   const R = rangeP.length;
-  const conditional = set.modes.map((mode) => {
+  const n = set.modes.length;
+  const conditional: number[][] = [];
+  for (const mode of set.modes) {
     const b = mode.basis;
-    if (b.kind === 'probability') return rangeP.map(() => value(b.key));
-    if (b.kind === 'by-range') return b.keys.map(value);
-    // P(outcome | range): the outcome's annual probability in the range over the range's.
-    return outcomeByRange(b.outcome).map((x, r) => (rangeP[r]! > 0 ? x / rangeP[r]! : 0));
-  });
-  const perRange = Array.from({ length: R }, (_, r) => conditional.map((c) => c[r]!));
-  const byRange = perRange.map(uniModalBounds);
-  const perRangeAdjusted = perRange.map(commonCauseAdjustment);
-  const annualOf = (xs: readonly number[]) => xs.reduce((s, x, r) => s + rangeP[r]! * x, 0);
-  const adjusted = set.modes.map((_, i) => perRangeAdjusted.map((a) => a[i]!));
+    const c = new Array<number>(R);
+    if (b.kind === 'probability') for (let r = 0; r < R; r++) c[r] = value(b.key);
+    else if (b.kind === 'by-range') for (let r = 0; r < R; r++) c[r] = value(b.keys[r]!);
+    else {
+      // P(outcome | range): the outcome's annual probability in the range over the range's.
+      const o = outcomeByRange(b.outcome);
+      for (let r = 0; r < R; r++) c[r] = rangeP[r]! > 0 ? o[r]! / rangeP[r]! : 0;
+    }
+    conditional.push(c);
+  }
+  const byRange: { sum: number; lower: number; upper: number }[] = [];
+  const adjusted: number[][] = conditional.map(() => new Array<number>(R));
+  const perRange = new Array<number>(n);
+  for (let r = 0; r < R; r++) {
+    for (let i = 0; i < n; i++) perRange[i] = conditional[i]![r]!;
+    byRange.push(uniModalBounds(perRange));
+    const a = commonCauseAdjustment(perRange);
+    for (let i = 0; i < n; i++) adjusted[i]![r] = a[i]!;
+  }
+  const annualOf = (xs: readonly number[]): number => {
+    let s = 0;
+    for (let r = 0; r < R; r++) s += rangeP[r]! * xs[r]!;
+    return s;
+  };
+  const sums = new Array<number>(R);
+  const lowers = new Array<number>(R);
+  const uppers = new Array<number>(R);
+  for (let r = 0; r < R; r++) {
+    sums[r] = byRange[r]!.sum;
+    lowers[r] = byRange[r]!.lower;
+    uppers[r] = byRange[r]!.upper;
+  }
   return {
     conditional,
     adjusted,
     annual: conditional.map(annualOf),
     adjustedAnnual: adjusted.map(annualOf),
     byRange,
-    total: { sum: annualOf(byRange.map((b) => b.sum)), lower: annualOf(byRange.map((b) => b.lower)), upper: annualOf(byRange.map((b) => b.upper)) },
+    total: { sum: annualOf(sums), lower: annualOf(lowers), upper: annualOf(uppers) },
   };
 }

@@ -37,8 +37,9 @@ export interface TreeRecipe {
   tree: EventTree;
   /** cells[i·R + r]: sequence i in range r — the index of its logic root, and its plain branch factors in heading order. */
   cells: { root: number; factors: { key: string; fails: boolean }[] }[];
-  /** Outcome index of each sequence. */
+  /** Outcome index of each sequence, and of each outcome id. */
   outcomeOf: number[];
+  outcomeIndex: Map<string, number>;
 }
 
 /** The numbers of one tree at one set of values. */
@@ -84,7 +85,7 @@ export function treeRecipe(study: Study, model: LogicModel, compiled: CompiledLo
     }
   }
   const outcomeIndex = new Map(tree.outcomes.map((o, i) => [o.id, i]));
-  return { tree, cells, outcomeOf: tree.sequences.map((s) => outcomeIndex.get(s.outcome)!) };
+  return { tree, cells, outcomeOf: tree.sequences.map((s) => outcomeIndex.get(s.outcome)!), outcomeIndex };
 }
 
 /** A tree's numbers from its logic roots' probabilities (`logicP[root]`) and its numbers' values. */

@@ -8,7 +8,7 @@ import { modelCapNote } from '../reliability/models/index.js';
 import type { Study } from '../study/types.js';
 import { ageInCase, baseCase, fieldValue } from './case.js';
 import { evaluateEvents, studyValues, type EventEvaluation } from './event-probability.js';
-import { parametersRead } from './event-plan.js';
+import { parametersSampled } from './event-plan.js';
 import { buildLogicModel } from './logic-model.js';
 import type { Results } from './results.js';
 import { ParameterSampler } from './sampling.js';
@@ -54,6 +54,6 @@ export function analysisInputWarnings(study: Study): ResultsWarning[] {
     const w = unequalTotalsWarning(layout.group, nums.totals, nums.reference);
     if (w) out.push(w);
   }
-  for (const h of new ParameterSampler(study, parametersRead(study)).held) out.push(notSampledWarning(study, h));
+  for (const h of new ParameterSampler(study, parametersSampled(study)).held) out.push(notSampledWarning(study, h));
   return out;
 }

@@ -11,7 +11,7 @@ import type { CompiledLogic } from '../logic/index.js';
 import type { CountSet, FailureModeSet, Study } from '../study/types.js';
 import { modeNumbers } from './combine-modes.js';
 import { treeNumbers, treeRecipe, type TreeNumbers, type TreeRecipe } from './event-trees.js';
-import { countRecipe, tails } from './gate-counts.js';
+import { countRecipe } from './gate-counts.js';
 import type { LogicModel } from './logic-model.js';
 import type { QuantityUncertainty, Results } from './results.js';
 
@@ -59,16 +59,22 @@ export function derivedValues(recipe: DerivedRecipe, rootP: ArrayLike<number>, v
   }
   for (const { set, tree } of recipe.modes) {
     const t = numbers[tree]!;
-    const outcomes = recipe.trees[tree]!.tree.outcomes;
-    const n = modeNumbers(set, t.rangeP, (id) => t.outcomeByRange[outcomes.findIndex((o) => o.id === id)]!, value);
+    const outcomes = recipe.trees[tree]!.outcomeIndex;
+    const n = modeNumbers(set, t.rangeP, (id) => t.outcomeByRange[outcomes.get(id)!]!, value);
     for (const x of n.adjustedAnnual) out[k++] = x;
     out[k++] = n.total.sum;
     out[k++] = n.total.lower;
     out[k++] = n.total.upper;
   }
   for (const { exactly } of recipe.counts) {
-    const atLeast = tails(exactly.map((i) => rootP[i]!));
-    for (let j = 1; j < atLeast.length; j++) out[k++] = atLeast[j]!;
+    // tails(), on the count's own entries: P(at least j) = Σ_{i ≥ j} P(exactly i), summed from the top.
+    let s = 0;
+    const at = k;
+    for (let j = exactly.length - 1; j >= 1; j--) {
+      s += rootP[exactly[j]!]!;
+      out[at + j - 1] = s;
+    }
+    k += exactly.length - 1;
   }
 }
 

@@ -322,6 +322,8 @@ export interface CommonCauseResult {
   method: 'beta' | 'mgl' | 'alpha';
   /** Alpha factor only. */
   testing?: 'staggered' | 'non-staggered';
+  /** Alpha factor only: the Dirichlet parameters a_1…a_M of the factors' joint uncertainty, when stated. */
+  dirichlet?: number[];
   parameters: { field: string; key: string; value: number }[];
   /** Each member's own total Q_t, and its independent part f_1·Q_t (the member's id in the logic). */
   members: { id: string; total: number; independent: number }[];

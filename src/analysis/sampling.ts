@@ -20,14 +20,15 @@
  * should be truncated or be a positive one).
  */
 import { createRng, latinHypercube, type Rng } from '../reliability/random.js';
-import { sampleQuantile } from '../reliability/distributions.js';
+import { dirichletFromUniforms, quantileFunction } from '../reliability/distributions.js';
 import { normalQuantile } from '../reliability/special.js';
 import { StudyError } from '../study/errors.js';
-import type { Parameter, Study, Uncertainty } from '../study/types.js';
+import type { Parameter, Study } from '../study/types.js';
 
 type Draw =
-  | { kind: 'quantile'; param: number; dim: number; u: Exclude<Uncertainty, { kind: 'fit' }> }
-  | { kind: 'log-normal-pair'; param: number; dims: [number, number]; weights: [number, number]; logCentre: number };
+  | { kind: 'quantile'; param: number; dim: number; quantile: (unitUniform: number) => number }
+  | { kind: 'log-normal-pair'; param: number; dims: [number, number]; weights: [number, number]; logCentre: number }
+  | { kind: 'dirichlet'; group: string; params: number[]; dims: number[]; a: number[]; gammas: Float64Array };
 
 export interface SamplerPlan {
   /** Parameter indices (into study.parameters) that vary between trials. */
@@ -46,6 +47,7 @@ export class ParameterSampler implements SamplerPlan {
   clippedTrials = 0;
   private readonly draws: Draw[] = [];
   private readonly params: Parameter[];
+  private readonly groupAt: (id: string) => Parameter['at'];
 
   /**
    * @param readBy parameter keys some basic event reads; uncertainty on any other parameter cannot
@@ -53,6 +55,7 @@ export class ParameterSampler implements SamplerPlan {
    */
   constructor(study: Study, readBy: ReadonlySet<string>) {
     this.params = study.parameters;
+    this.groupAt = (id) => study.commonCause.find((g) => g.id === id)!.dirichlet!.at;
     let dims = 0;
     const fitPairs = new Map<string, { dims: [number, number]; chol: [number, number, number] } | null>();
     study.parameters.forEach((p, i) => {
@@ -63,7 +66,7 @@ export class ParameterSampler implements SamplerPlan {
         return;
       }
       if (u.kind !== 'fit') {
-        this.draws.push({ kind: 'quantile', param: i, dim: dims++, u });
+        this.draws.push({ kind: 'quantile', param: i, dim: dims++, quantile: quantileFunction(u) });
         this.varying.add(i);
         return;
       }
@@ -90,6 +93,17 @@ export class ParameterSampler implements SamplerPlan {
       this.draws.push({ kind: 'log-normal-pair', param: i, dims: pair.dims, weights, logCentre: Math.log(p.value) });
       this.varying.add(i);
     });
+    // An alpha-factor group's Dirichlet: one dimension per factor (dirichlet.ts).
+    const index = new Map(study.parameters.map((p, i) => [p.key, i]));
+    for (const g of study.commonCause) {
+      if (!g.dirichlet) continue;
+      const params = Object.keys(g.fields)
+        .sort((x, y) => Number(x.slice('alpha'.length)) - Number(y.slice('alpha'.length)))
+        .map((f) => index.get(g.fields[f]!)!);
+      const draw: Draw = { kind: 'dirichlet', group: g.id, params, dims: params.map(() => dims++), a: g.dirichlet.a, gammas: new Float64Array(params.length) };
+      this.draws.push(draw);
+      for (const i of params) this.varying.add(i);
+    }
     this.dimensions = dims;
   }
 
@@ -101,8 +115,15 @@ export class ParameterSampler implements SamplerPlan {
     let clipped = false;
     for (const d of this.draws) {
       let v: number;
+      if (d.kind === 'dirichlet') {
+        if (!dirichletFromUniforms(d.a, d.dims.map((k) => uniforms[k]!), d.gammas)) {
+          throw new StudyError(`the alpha factors of common-cause group '${d.group}' could not be sampled in Monte Carlo trial ${trial + 1}: every gamma variate was 0`, this.groupAt(d.group), 'larger Dirichlet parameters (a concentration of at least a few per factor)');
+        }
+        d.params.forEach((param, k) => (values[param] = d.gammas[k]!));
+        continue;
+      }
       if (d.kind === 'quantile') {
-        v = sampleQuantile(d.u, uniforms[d.dim]!);
+        v = d.quantile(uniforms[d.dim]!);
       } else {
         const z1 = normalQuantile(uniforms[d.dims[0]]!);
         const z2 = normalQuantile(uniforms[d.dims[1]]!);
@@ -146,23 +167,26 @@ export function cholesky2(c: readonly (readonly number[])[]): [number, number, n
  * Rows of unit uniforms, one per trial: plain sampling draws each row from the generator in order;
  * Latin hypercube sampling (McKay, Beckman & Conover 1979) draws each dimension's column of n
  * stratified values up front (`latinHypercube`), dimension by dimension, from the same generator.
- * Either way trial t's row depends only on the seed and t: a reader that starts at trial `from`
- * (another thread's share of the trials) first passes over the generator's outputs of the trials
- * before it, so it gets the rows a reader from trial 0 would.
+ * Either way trial t's row depends only on the seed and t: a reader asked for a later trial than the
+ * next one (another thread ran the trials between) passes over the generator's outputs of the trials
+ * it skips, so it gets the rows a reader that went through every trial would.
  */
 export interface UniformRows {
-  /** Fill `out` (length = dimensions) with trial t's uniforms; trials are asked for in order from, from + 1, … */
+  /** Fill `out` (length = dimensions) with trial t's uniforms; t must increase from call to call. */
   row(t: number, out: Float64Array): void;
 }
 
-export function uniformRows(seed: number, method: 'monte-carlo' | 'latin-hypercube', trials: number, dimensions: number, from = 0): UniformRows {
+export function uniformRows(seed: number, method: 'monte-carlo' | 'latin-hypercube', trials: number, dimensions: number): UniformRows {
   const rng: Rng = createRng(seed);
   if (method === 'monte-carlo') {
-    // Each uniform takes two 32-bit outputs (random.ts `next`).
-    for (let k = 2 * from * dimensions; k > 0; k--) rng.nextUint32();
+    let next = 0;
     return {
-      row(_t, out) {
+      row(t, out) {
+        if (t < next) throw new RangeError(`uniform rows are read forwards: trial ${t} after ${next - 1}`);
+        // Each uniform takes two 32-bit outputs (random.ts `next`).
+        for (let k = 2 * (t - next) * dimensions; k > 0; k--) rng.nextUint32();
         for (let d = 0; d < dimensions; d++) out[d] = rng.next();
+        next = t + 1;
       },
     };
   }

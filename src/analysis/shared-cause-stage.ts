@@ -115,6 +115,7 @@ function commonCauseResults(ctx: AnalysisContext): { groups: CommonCauseResult[]
     };
     if (g.title) r.title = g.title;
     if (g.method === 'alpha') r.testing = g.testing;
+    if (g.dirichlet) r.dirichlet = [...g.dirichlet.a];
     return r;
   });
   const events = ctx.results.events.map((e) => {

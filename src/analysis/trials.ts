@@ -29,77 +29,116 @@ export interface TrialJob {
   samples: number;
 }
 
-/** The values of trials [from, to). */
-export interface TrialBlock {
-  from: number;
-  to: number;
-  /** tops[k][t − from]: top k in trial t. */
-  tops: Float64Array[];
-  /** derived[q][t − from]: the recipe's quantity q in trial t. */
-  derived: Float64Array[];
-  /** Trials in which a sampled probability above 1 was set to 1. */
-  clippedTrials: number;
+/**
+ * Where trials write their values, by absolute trial index (plain or shared memory):
+ * tops[k·samples + t], derived[q·samples + t], clipped[t] = 1 when a sampled probability above 1
+ * was set to 1 in trial t.
+ */
+export interface TrialSink {
+  tops: Float64Array;
+  derived: Float64Array;
+  clipped: Uint8Array;
 }
 
-export interface BlockOptions {
-  batch?: number;
-  /** Called after each batch with the number of trials of this block done so far. */
-  onBatch?: (done: number) => void;
+export function trialSink(job: TrialJob, shared = false): TrialSink {
+  const n = job.samples;
+  const f64 = (count: number) => (shared ? new Float64Array(new SharedArrayBuffer(count * 8)) : new Float64Array(count));
+  return {
+    tops: f64(job.topCount * n),
+    derived: f64((job.recipe?.quantities.length ?? 0) * n),
+    clipped: shared ? new Uint8Array(new SharedArrayBuffer(n)) : new Uint8Array(n),
+  };
 }
 
-export function runTrials(job: TrialJob, from: number, to: number, options: BlockOptions = {}): TrialBlock {
-  const { study, diagram, topCount, recipe } = job;
-  const B = options.batch ?? DEFAULT_BATCH;
-  const n = to - from;
-  const sampler = new ParameterSampler(study, parametersSampled(study));
-  const plan = new EventPlan(study, baseCase(), sampler.varying);
-  const expansion = commonCauseOf(study);
-  const rows = uniformRows(study.settings.seed, study.settings.sampling, job.samples, sampler.dimensions, from);
-  const evaluator = new BatchEvaluator(diagram, B);
-
-  const P = study.parameters.length;
-  const V = expansion.variableCount;
-  const uniforms = new Float64Array(sampler.dimensions);
-  const parameterValues = Float64Array.from(study.parameters, (p) => p.value);
-  const eventProbability = new Float64Array(study.events.length);
-  const variableProbability = new Float64Array(V);
-  const parameterIndex = new Map(study.parameters.map((p, i) => [p.key, i]));
-  const valueOf = (key: string): number => parameterValues[parameterIndex.get(key)!]!;
-  const pBatch = new Float64Array(V * B);
-  const rootsBatch = new Float64Array(diagram.roots.length * B);
-
-  // The derived quantities of trial b read that trial's parameter values after the batch's pass.
-  const Q = recipe?.quantities.length ?? 0;
-  const parametersBatch = recipe ? new Float64Array(P * B) : new Float64Array(0);
-  let offset = 0;
-  const batchValueOf = (key: string): number => parametersBatch[offset + parameterIndex.get(key)!]!;
-  const rootP = new Float64Array(recipe?.rootCount ?? 0);
-  const quantities = new Float64Array(Q);
-
-  const tops = Array.from({ length: topCount }, () => new Float64Array(n));
-  const derived = Array.from({ length: Q }, () => new Float64Array(n));
-  for (let t0 = from; t0 < to; t0 += B) {
-    const count = Math.min(B, to - t0);
-    for (let b = 0; b < count; b++) {
-      rows.row(t0 + b, uniforms);
-      sampler.apply(uniforms, parameterValues, t0 + b);
-      plan.evaluate(parameterValues, eventProbability);
-      expansion.apply(eventProbability, valueOf, variableProbability);
-      for (let v = 0; v < V; v++) pBatch[v * B + b] = variableProbability[v]!;
-      if (recipe) parametersBatch.set(parameterValues, b * P);
-    }
-    evaluator.evaluate(pBatch, count, rootsBatch);
-    const at = t0 - from;
-    for (let k = 0; k < topCount; k++) tops[k]!.set(rootsBatch.subarray(k * B, k * B + count), at);
-    if (recipe) {
-      for (let b = 0; b < count; b++) {
-        for (let j = 0; j < rootP.length; j++) rootP[j] = rootsBatch[(topCount + j) * B + b]!;
-        offset = b * P;
-        derivedValues(recipe, rootP, batchValueOf, quantities);
-        for (let q = 0; q < Q; q++) derived[q]![at + b] = quantities[q]!;
-      }
-    }
-    options.onBatch?.(at + count);
+/** A failure in a trial: the trial's index and the error (a StudyError for an input the trial cannot evaluate). */
+export class TrialError extends Error {
+  constructor(
+    readonly trial: number,
+    readonly error: unknown,
+  ) {
+    super(error instanceof Error ? error.message : String(error));
   }
-  return { from, to, tops, derived, clippedTrials: sampler.clippedTrials };
+}
+
+/**
+ * Runs blocks of trials of one job; made once per thread (the sampler, event plan and diagram pass
+ * are prepared once), then asked for blocks in increasing order.
+ */
+export class TrialRunner {
+  private readonly B: number;
+  private readonly sampler: ParameterSampler;
+  private readonly plan: EventPlan;
+  private readonly rows: ReturnType<typeof uniformRows>;
+  private readonly evaluator: BatchEvaluator;
+
+  constructor(
+    private readonly job: TrialJob,
+    batch = DEFAULT_BATCH,
+  ) {
+    const study = job.study;
+    this.B = batch;
+    this.sampler = new ParameterSampler(study, parametersSampled(study));
+    this.plan = new EventPlan(study, baseCase(), this.sampler.varying);
+    this.rows = uniformRows(study.settings.seed, study.settings.sampling, job.samples, this.sampler.dimensions);
+    this.evaluator = new BatchEvaluator(job.diagram, batch);
+  }
+
+  /**
+   * Trials [from, to) into the sink. `onBatch(count)` after each batch. A failing trial throws a
+   * TrialError naming it; the trials before it in the block are written.
+   */
+  run(from: number, to: number, sink: TrialSink, onBatch?: (count: number) => void): void {
+    const { study, diagram, topCount, recipe, samples } = this.job;
+    const { B, sampler, plan, rows, evaluator } = this;
+    const expansion = commonCauseOf(study);
+    const P = study.parameters.length;
+    const V = expansion.variableCount;
+    const uniforms = new Float64Array(sampler.dimensions);
+    const parameterValues = Float64Array.from(study.parameters, (p) => p.value);
+    const eventProbability = new Float64Array(study.events.length);
+    const variableProbability = new Float64Array(V);
+    const parameterIndex = new Map(study.parameters.map((p, i) => [p.key, i]));
+    const valueOf = (key: string): number => parameterValues[parameterIndex.get(key)!]!;
+    const pBatch = new Float64Array(V * B);
+    const rootsBatch = new Float64Array(diagram.roots.length * B);
+    // The derived quantities of trial b read that trial's parameter values after the batch's pass.
+    const Q = recipe?.quantities.length ?? 0;
+    const parametersBatch = recipe ? new Float64Array(P * B) : new Float64Array(0);
+    let offset = 0;
+    const batchValueOf = (key: string): number => parametersBatch[offset + parameterIndex.get(key)!]!;
+    const rootP = new Float64Array(recipe?.rootCount ?? 0);
+    const quantities = new Float64Array(Q);
+
+    let t = from;
+    try {
+      for (let t0 = from; t0 < to; t0 += B) {
+        const count = Math.min(B, to - t0);
+        for (let b = 0; b < count; b++) {
+          t = t0 + b;
+          rows.row(t, uniforms);
+          const before = sampler.clippedTrials;
+          sampler.apply(uniforms, parameterValues, t);
+          if (sampler.clippedTrials !== before) sink.clipped[t] = 1;
+          plan.evaluate(parameterValues, eventProbability);
+          expansion.apply(eventProbability, valueOf, variableProbability);
+          for (let v = 0; v < V; v++) pBatch[v * B + b] = variableProbability[v]!;
+          if (recipe) parametersBatch.set(parameterValues, b * P);
+        }
+        evaluator.evaluate(pBatch, count, rootsBatch);
+        for (let k = 0; k < topCount; k++) sink.tops.set(rootsBatch.subarray(k * B, k * B + count), k * samples + t0);
+        if (recipe) {
+          for (let b = 0; b < count; b++) {
+            t = t0 + b;
+            for (let j = 0; j < rootP.length; j++) rootP[j] = rootsBatch[(topCount + j) * B + b]!;
+            offset = b * P;
+            derivedValues(recipe, rootP, batchValueOf, quantities);
+            for (let q = 0; q < Q; q++) sink.derived[q * samples + t] = quantities[q]!;
+          }
+        }
+        onBatch?.(count);
+      }
+    } catch (err) {
+      throw new TrialError(t, err);
+    }
+  }
 }

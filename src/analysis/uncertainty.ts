@@ -13,12 +13,15 @@ import type { Stage } from './analyze.js';
 import { baseCase } from './case.js';
 import { CaseQuantifier } from './case-quantifier.js';
 import { commonCauseOf } from './common-cause.js';
+import { notSampledWarning } from './input-warnings.js';
 import { parametersSampled } from './event-plan.js';
 import { derivedRecipe, sectionValue, type DerivedRecipe } from './outcome-quantities.js';
 import type { QuantityUncertainty, Results, UncertaintyResult } from './results.js';
+import { sampleQuantile } from '../reliability/distributions.js';
 import { ParameterSampler } from './sampling.js';
 import { meanAndSd, quantileSorted, sortedCopy, summarize } from './statistics.js';
-import { runTrials, type TrialJob } from './trials.js';
+import { CHUNK, runParallel } from './parallel-trials.js';
+import { DEFAULT_BATCH, TrialError, TrialRunner, trialSink, type TrialJob, type TrialSink } from './trials.js';
 
 export interface UncertaintyOptions {
   progress?: (label: string, done: number, total: number) => void;
@@ -26,6 +29,8 @@ export interface UncertaintyOptions {
   samples?: number;
   /** Trials per diagram pass (trials.ts); no number depends on it. */
   batch?: number;
+  /** Threads to run the trials on (parallel-trials.ts), this one included; 1 (the default) runs them here. No number depends on it. */
+  threads?: number;
   /** Also quantify the event trees, failure modes and gate counts in every trial (default true). */
   outcomes?: boolean;
 }
@@ -45,16 +50,15 @@ export interface MonteCarloRun {
   sampled: string[];
   held: { key: string; reason: string }[];
   clippedTrials: number;
+  /** Chunks of trials the worker threads ran (the benchmark prints it; never in the results). */
+  workerChunks: number;
 }
 
-/** Runs the trials; undefined when no parameter states a samplable uncertainty or samples is 0. */
-export function monteCarlo(study: Study, quantifier: CaseQuantifier, options: UncertaintyOptions = {}): MonteCarloRun | undefined {
-  const samples = options.samples ?? study.settings.samples;
-  const sampler = new ParameterSampler(study, parametersSampled(study));
-  if (sampler.varying.size === 0 || !(samples > 0)) return undefined;
+/** The plain-data job of a study's trials (trials.ts): the base-case diagram of the tops and, with `outcomes`, of the derived quantities. */
+export function trialJob(study: Study, quantifier: CaseQuantifier, samples: number, outcomes = true): TrialJob {
   const { compiled } = quantifier.diagram(baseCase());
   const topRoots = quantifier.model.topGates.map((g) => compiled.gateRoots[g]!);
-  const derived = options.outcomes === false ? undefined : derivedRecipe(study, quantifier.model, compiled);
+  const derived = outcomes ? derivedRecipe(study, quantifier.model, compiled) : undefined;
   // The diagram's variables: the events, then the common-cause expansion's shared events (common-cause.ts).
   const variables = commonCauseOf(study).variableCount;
   const job: TrialJob = {
@@ -64,30 +68,56 @@ export function monteCarlo(study: Study, quantifier: CaseQuantifier, options: Un
     samples,
   };
   if (derived) job.recipe = derived.recipe;
+  return job;
+}
+
+/** Runs the trials; undefined when no parameter states a samplable uncertainty or samples is 0. */
+export function monteCarlo(study: Study, quantifier: CaseQuantifier, options: UncertaintyOptions = {}): MonteCarloRun | undefined {
+  const samples = options.samples ?? study.settings.samples;
+  const sampler = new ParameterSampler(study, parametersSampled(study));
+  if (sampler.varying.size === 0 || !(samples > 0)) return undefined;
+  const job = trialJob(study, quantifier, samples, options.outcomes !== false);
+  const derived = job.recipe;
   const method = study.settings.sampling;
   const label = method === 'latin-hypercube' ? 'Latin hypercube' : 'Monte Carlo';
   let reported = 0;
-  const block = runTrials(job, 0, samples, {
-    ...(options.batch !== undefined ? { batch: options.batch } : {}),
-    onBatch: (done) => {
-      if (!options.progress) return;
-      while (reported + PROGRESS_EVERY <= done) {
-        reported += PROGRESS_EVERY;
-        options.progress(label, reported, samples);
-      }
-    },
-  });
+  const progress = (done: number) => {
+    if (!options.progress) return;
+    while (reported + PROGRESS_EVERY <= done) {
+      reported += PROGRESS_EVERY;
+      options.progress(label, reported, samples);
+    }
+  };
+  const batch = options.batch ?? DEFAULT_BATCH;
+  const threads = options.threads ?? 1;
+  let sink: TrialSink;
+  let workerChunks = 0;
+  if (threads > 1 && samples >= 2 * CHUNK) {
+    ({ sink, workerChunks } = runParallel(job, { threads, batch, onProgress: progress }));
+  } else {
+    sink = trialSink(job);
+    let done = 0;
+    try {
+      new TrialRunner(job, batch).run(0, samples, sink, (count) => progress((done += count)));
+    } catch (err) {
+      throw err instanceof TrialError ? err.error : err;
+    }
+  }
   options.progress?.(label, samples, samples);
+  const rows = (flat: Float64Array, count: number) => Array.from({ length: count }, (_, k) => flat.subarray(k * samples, (k + 1) * samples));
+  let clippedTrials = 0;
+  for (let t = 0; t < samples; t++) clippedTrials += sink.clipped[t]!;
   const run: MonteCarloRun = {
-    values: block.tops,
-    derived: block.derived,
+    values: rows(sink.tops, job.topCount),
+    derived: rows(sink.derived, derived?.quantities.length ?? 0),
     samples,
     method,
     sampled: [...sampler.varying].sort((a, b) => a - b).map((i) => study.parameters[i]!.key),
     held: sampler.held,
-    clippedTrials: block.clippedTrials,
+    clippedTrials,
+    workerChunks,
   };
-  if (derived) run.recipe = derived.recipe;
+  if (derived) run.recipe = derived;
   return run;
 }
 
@@ -150,13 +180,43 @@ export function uncertainty(
 export const uncertaintyStage: Stage = (ctx) => {
   const { study } = ctx;
   const quantifier = new CaseQuantifier(study, ctx.model, ctx.compiled);
-  const u = uncertainty(study, quantifier, ctx.options.progress ? { progress: ctx.options.progress } : {});
+  const options: UncertaintyOptions = {};
+  if (ctx.options.progress) options.progress = ctx.options.progress;
+  if (ctx.options.threads !== undefined) options.threads = ctx.options.threads;
+  const u = uncertainty(study, quantifier, options);
   const out: Partial<Results> = {};
   if (u.results.length > 0) out.uncertainty = u.results;
   const outcomes = u.run ? outcomeUncertainty(u.run, ctx.results) : [];
   if (outcomes.length > 0) out.outcome_uncertainty = outcomes;
-  if (u.held.length > 0) {
-    out.warnings = [...ctx.results.warnings, ...u.held.map((h) => notSampledWarning(study, h))];
-  }
+  const warnings: Results['warnings'] = [];
+  for (const h of u.held) warnings.push(notSampledWarning(study, h));
+  if (u.run && u.run.clippedTrials > 0) warnings.push(clippedWarning(study, u.run));
+  if (warnings.length > 0) out.warnings = [...ctx.results.warnings, ...warnings];
   return out;
 };
+
+/**
+ * The warning for trials in which a sampled probability came out above 1 and was set to 1: how many
+ * trials, and which sampled probabilities can exceed 1 (their distribution reaches above 1), so the
+ * reader knows the tail was cut and where to state a bounded distribution (beta, or a normal with max: 1).
+ */
+function clippedWarning(study: Study, run: MonteCarloRun): Results['warnings'][number] {
+  const sampled = new Set(run.sampled);
+  const able = study.parameters.filter(
+    (p) => sampled.has(p.key) && p.quantity === 'probability' && p.uncertainty && p.uncertainty.kind !== 'fit' && sampleQuantile(p.uncertainty, LARGEST_UNIFORM) > 1,
+  );
+  const share = ((100 * run.clippedTrials) / run.samples).toPrecision(2);
+  const which = able.length > 0 ? `: ${able.map((p) => `'${p.key}'`).join(', ')} can exceed 1` : '';
+  const w: Results['warnings'][number] = {
+    code: 'sampled-probability-clipped',
+    message:
+      `in ${run.clippedTrials.toLocaleString('en-US')} of ${run.samples.toLocaleString('en-US')} Monte Carlo trials (${share} %) a sampled probability was above 1 and was set to 1${which}; ` +
+      'the upper tail of the uncertainty is cut there (a beta distribution, or a normal with max: 1, stays within 0 to 1)',
+  };
+  const first = able[0];
+  if (first) w.at = { file: first.at.file, line: first.at.line };
+  return w;
+}
+
+/** The largest uniform the generator gives (random.ts: 1 − 2^-53). */
+const LARGEST_UNIFORM = 1 - 2 ** -53;

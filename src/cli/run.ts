@@ -2,6 +2,7 @@
  * `faultbook run STUDY`: read, analyse and render; every output is made in memory first and only
  * then written, each file renamed into place, so a failed run leaves earlier outputs as they were.
  */
+import { availableParallelism } from 'node:os';
 import { basename, join, resolve } from 'node:path';
 import { analyze } from '../analysis/analyze.js';
 import { StudyError } from '../study/errors.js';
@@ -15,12 +16,13 @@ import { formatProbability, printWarnings } from './print.js';
 import { createProgress } from './progress.js';
 
 const spec: CommandSpec = {
-  usage: 'STUDY [--out DIR] [--format html,pdf,json,csv] [--paper a4|letter] [--quiet]',
+  usage: 'STUDY [--out DIR] [--format html,pdf,json,csv] [--paper a4|letter] [--threads N] [--quiet]',
   summary: 'quantify a study and write its appendix (appendix.html, appendix.pdf, results.json, cutsets.csv)',
   options: {
     out: { type: 'string', value: 'DIR', help: 'output folder (default: out/<study folder name>)' },
     format: { type: 'string', value: 'LIST', help: 'comma-separated: html, pdf, json, csv (default: all)' },
     paper: { type: 'string', value: 'SIZE', help: 'a4 (default) or letter' },
+    threads: { type: 'string', value: 'N', help: 'threads for the Monte Carlo trials (default: the processor cores, at most 8); the numbers never depend on it' },
     quiet: { type: 'boolean', help: 'no progress or summary; errors and warnings only' },
   },
   positionals: ['STUDY'],
@@ -34,6 +36,14 @@ export function parseFormats(text: string | undefined): Set<OutputFormat> {
     throw new StudyError(`unknown format${bad.length > 1 ? 's' : ''} '${bad.join(', ') || text}'`, undefined, `a comma-separated list of ${OUTPUT_FORMATS.join(', ')}`);
   }
   return new Set(asked as OutputFormat[]);
+}
+
+/** Threads for the Monte Carlo: the cores the system offers, at most 8, unless asked. */
+export function parseThreads(text: string | undefined): number {
+  if (text === undefined) return Math.max(1, Math.min(8, availableParallelism()));
+  const n = Number(text);
+  if (!Number.isInteger(n) || n < 1 || n > 64) throw new StudyError(`--threads must be a whole number from 1 to 64, got '${text}'`, undefined, '--threads 2 (or leave it out to use the processor cores)');
+  return n;
 }
 
 export function parsePaper(text: string | undefined): 'a4' | 'letter' {
@@ -52,6 +62,7 @@ const run: Command = async (argv, io) => {
   const formats = parseFormats(args.values.format as string | undefined);
   const paper = parsePaper(args.values.paper as string | undefined);
   const quiet = Boolean(args.values.quiet);
+  const threads = parseThreads(args.values.threads as string | undefined);
   const outDir = resolve((args.values.out as string | undefined) ?? `out/${basename(resolve(studyDir))}`);
 
   const study = readStudy(studyDir);
@@ -60,7 +71,7 @@ const run: Command = async (argv, io) => {
   const progress = createProgress({ isTTY: io.isTTY, quiet, write: (t) => io.stderr(t), now: () => performance.now() });
   let results;
   try {
-    results = analyze(study, { progress: progress.update });
+    results = analyze(study, { progress: progress.update, threads });
   } finally {
     progress.finish();
   }

@@ -107,6 +107,22 @@ export function sampleQuantile(u: Uncertainty, unitUniform: number): number {
   }
 }
 
+/**
+ * `sampleQuantile` for one distribution, prepared once for many draws (the Monte Carlo): the
+ * lognormal's σ is computed once; every value is the one sampleQuantile gives, bit for bit.
+ */
+export function quantileFunction(u: Uncertainty): (unitUniform: number) => number {
+  assertSampled(u);
+  if (u.kind === 'lognormal' && u.median > 0) {
+    const sigma = lognormalSigma(u.ef);
+    if (sigma > 0) {
+      const median = u.median;
+      return (p) => (p >= 0 && p <= 1 ? median * Math.exp(sigma * normalQuantile(p)) : NaN);
+    }
+  }
+  return (p) => sampleQuantile(u, p);
+}
+
 export interface UncertaintySummary {
   mean: number;
   median: number;
@@ -150,4 +166,23 @@ export function describe(u: Uncertainty): UncertaintySummary {
     p05: sampleQuantile(u, 0.05),
     p95: sampleQuantile(u, 0.95),
   };
+}
+
+/**
+ * One draw of a Dirichlet distribution with parameters a_1…a_M from M unit uniforms: independent
+ * gamma variates X_k ~ Gamma(a_k, 1), each by its inverse CDF (so Latin hypercube strata carry
+ * over), normalised, α_k = X_k / ΣX (the standard construction; e.g. L. Devroye, Non-Uniform
+ * Random Variate Generation, 1986, ch. XI, from memory). Each marginal is Beta(a_k, Σa − a_k) and the
+ * α_k add up to 1 (to rounding). Writes into `out`; false when every X_k underflowed to 0.
+ */
+export function dirichletFromUniforms(a: readonly number[], uniforms: readonly number[], out: Float64Array): boolean {
+  let total = 0;
+  for (let k = 0; k < a.length; k++) {
+    const x = gammaQuantile(uniforms[k]!, a[k]!, 1);
+    out[k] = x;
+    total += x;
+  }
+  if (!(total > 0) || !Number.isFinite(total)) return false;
+  for (let k = 0; k < a.length; k++) out[k] = out[k]! / total;
+  return true;
 }

@@ -168,9 +168,16 @@ function log1pmx(d: number): number {
 // ---------------------------------------------------------------------------------------------
 // Incomplete gamma
 
+let LN_GAMMA_HALF: number | undefined;
+/** lnΓ(½) by the same lnGamma, so the value is bit for bit what lnGamma(0.5) gives. */
+function lnGammaHalf(): number {
+  return (LN_GAMMA_HALF ??= lnGamma(0.5));
+}
+
 /** x^a·e^(−x)/Γ(a), the common factor of the series and the continued fraction. */
 function gammaPrefactor(a: number, x: number): number {
-  if (a < 10) return Math.exp(a * Math.log(x) - x - lnGamma(a));
+  // a = ½ is the normal CDF's case (normalCdf), met in every normal quantile: lnΓ(½) computed once.
+  if (a < 10) return Math.exp(a * Math.log(x) - x - (a === 0.5 ? lnGammaHalf() : lnGamma(a)));
   // With t = x/a: ln(prefactor) = a·(ln t + 1 − t) + ½ln a − ½ln 2π − c(a), so no large terms
   // cancel; near t = 1 the bracket is ln(1+d) − d with d = (x − a)/a, summed as a series.
   const d = (x - a) / a;
@@ -257,38 +264,29 @@ export function normalCdf(z: number): number {
 
 // P. J. Acklam's rational approximation of Φ⁻¹ (2003; relative error below 1.15e-9), refined below.
 // Coefficients from memory; the Halley step and the tests against @stdlib guard the result.
-const ACKLAM_A = [
-  -3.969683028665376e1, 2.209460984245205e2, -2.759285104469687e2, 1.38357751867269e2,
-  -3.066479806614716e1, 2.506628277459239,
-];
-const ACKLAM_B = [
-  -5.447609879822406e1, 1.615858368580409e2, -1.556989798598866e2, 6.680131188771972e1,
-  -1.328068155288572e1,
-];
-const ACKLAM_C = [
-  -7.784894002430293e-3, -3.223964580411365e-1, -2.400758277161838, -2.549732539343734,
-  4.374664141464968, 2.938163982698783,
-];
-const ACKLAM_D = [7.784695709041462e-3, 3.224671290700398e-1, 2.445134137142996, 3.754408661907416];
+// Acklam's coefficients as plain constants (a hot path of every Monte Carlo trial).
+const A0 = -3.969683028665376e1, A1 = 2.209460984245205e2, A2 = -2.759285104469687e2, A3 = 1.38357751867269e2;
+const A4 = -3.066479806614716e1, A5 = 2.506628277459239;
+const B0 = -5.447609879822406e1, B1 = 1.615858368580409e2, B2 = -1.556989798598866e2, B3 = 6.680131188771972e1;
+const B4 = -1.328068155288572e1;
+const C0 = -7.784894002430293e-3, C1 = -3.223964580411365e-1, C2 = -2.400758277161838, C3 = -2.549732539343734;
+const C4 = 4.374664141464968, C5 = 2.938163982698783;
+const D0 = 7.784695709041462e-3, D1 = 3.224671290700398e-1, D2 = 2.445134137142996, D3 = 3.754408661907416;
 
 /** Acklam's approximation for p ≤ ½ (the lower half; the upper half follows by symmetry). */
 function acklamLower(p: number): number {
-  const [a0, a1, a2, a3, a4, a5] = ACKLAM_A as [number, number, number, number, number, number];
-  const [b0, b1, b2, b3, b4] = ACKLAM_B as [number, number, number, number, number];
-  const [c0, c1, c2, c3, c4, c5] = ACKLAM_C as [number, number, number, number, number, number];
-  const [d0, d1, d2, d3] = ACKLAM_D as [number, number, number, number];
   if (p < 0.02425) {
     const q = Math.sqrt(-2 * Math.log(p));
     return (
-      (((((c0 * q + c1) * q + c2) * q + c3) * q + c4) * q + c5) /
-      ((((d0 * q + d1) * q + d2) * q + d3) * q + 1)
+      (((((C0 * q + C1) * q + C2) * q + C3) * q + C4) * q + C5) /
+      ((((D0 * q + D1) * q + D2) * q + D3) * q + 1)
     );
   }
   const q = p - 0.5;
   const r = q * q;
   return (
-    ((((((a0 * r + a1) * r + a2) * r + a3) * r + a4) * r + a5) * q) /
-    (((((b0 * r + b1) * r + b2) * r + b3) * r + b4) * r + 1)
+    ((((((A0 * r + A1) * r + A2) * r + A3) * r + A4) * r + A5) * q) /
+    (((((B0 * r + B1) * r + B2) * r + B3) * r + B4) * r + 1)
   );
 }
 

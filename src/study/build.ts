@@ -441,11 +441,69 @@ function readCommonCause(
     const sum = wanted.reduce((s, f) => s + parameters.find((p) => p.key === fields[f])!.value, 0);
     if (Math.abs(sum - 1) > 1e-6) throw new StudyError(`common-cause group '${id}': the alpha factors add up to ${sum}`, at, 'alpha1 + … + alphaM = 1');
   }
+  const dirichlet = raw.uncertainty === undefined ? undefined : readAlphaUncertainty(id, method, raw.uncertainty, file, wanted.map((f) => parameters.find((p) => p.key === fields[f])!));
+  if (method === 'alpha') {
+    for (const f of wanted) {
+      const p = parameters.find((x) => x.key === fields[f])!;
+      if (p.uncertainty) {
+        throw new StudyError(
+          `common-cause group '${id}': '${f}' states an uncertainty of its own; the alpha factors add up to 1, so their uncertainty is stated for the group, jointly`,
+          file.at(['common_cause', id, f, 'uncertainty']),
+          `remove it from '${f}' and give the group 'uncertainty: { dirichlet: { concentration: 40 } }' (the stated alphas are the mean) or 'uncertainty: { dirichlet: [a1, …, a${wanted.length}] }'`,
+        );
+      }
+    }
+  }
   // The testing scheme changes only the alpha-factor formulas; elsewhere it would be silently ignored.
   if (raw.testing !== undefined && method !== 'alpha') throw new StudyError(`common-cause group '${id}': 'testing' matters only to the alpha-factor method`, file.keyAt(['common_cause', id, 'testing']), `remove 'testing', or use 'method: alpha'`);
   const g: CommonCauseGroup = { id, members, method, testing: raw.testing === 'staggered' ? 'staggered' : 'non-staggered', fields, at };
+  if (dirichlet) g.dirichlet = dirichlet;
   if (typeof raw.title === 'string') g.title = raw.title;
   return g;
+}
+
+/**
+ * A group's `uncertainty:`: alpha factors only, as a Dirichlet distribution (NUREG/CR-5485: the
+ * alpha factors' joint uncertainty, the factors summing to 1), given either by an overall
+ * concentration A with the stated alphas as the mean (a_k = A·alpha_k), or by its parameters
+ * a_1…a_M, whose mean a_k/Σa must then be the stated alphas.
+ */
+function readAlphaUncertainty(id: string, method: CommonCauseGroup['method'], raw: unknown, file: YamlFile, alphas: Parameter[]): { a: number[]; at: Pos } {
+  const path = ['common_cause', id, 'uncertainty'];
+  const at = file.at(path);
+  const m = alphas.length;
+  const form = `'uncertainty: { dirichlet: { concentration: 40 } }' (the stated alphas are the mean) or 'uncertainty: { dirichlet: [a1, …, a${m}] }'`;
+  if (method !== 'alpha') {
+    throw new StudyError(`common-cause group '${id}': a group-level 'uncertainty' is the alpha factors' joint one`, file.keyAt(path), `state the uncertainty on '${method === 'beta' ? 'beta' : 'beta, gamma, delta'}' itself, e.g. 'beta: { value: 0.05, uncertainty: { lognormal: { median: 0.05, ef: 2 } } }'`);
+  }
+  const body = raw !== null && typeof raw === 'object' ? (raw as Record<string, unknown>).dirichlet : undefined;
+  if (body === undefined || Object.keys(raw as object).length !== 1) throw new StudyError(`common-cause group '${id}': the alpha factors' uncertainty must be a Dirichlet distribution`, at, form);
+  const dAt = file.at([...path, 'dirichlet']);
+  if (Array.isArray(body)) {
+    const a = body.map(Number);
+    if (a.length !== m) throw new StudyError(`common-cause group '${id}': the Dirichlet has ${a.length} parameters for ${m} alpha factors`, dAt, `one parameter per alpha factor: [a1, …, a${m}]`);
+    a.forEach((x, k) => {
+      if (!(x > 0) || !Number.isFinite(x)) throw new StudyError(`common-cause group '${id}': Dirichlet parameter a${k + 1} is ${String(body[k])}`, file.at([...path, 'dirichlet', k]), 'a positive number');
+    });
+    const total = a.reduce((s, x) => s + x, 0);
+    const mean = a.map((x) => x / total);
+    if (mean.some((x, k) => Math.abs(x - alphas[k]!.value) > 1e-6)) {
+      throw new StudyError(
+        `common-cause group '${id}': the Dirichlet's mean (${mean.map((x) => x.toPrecision(4)).join(', ')}) is not the stated alphas (${alphas.map((p) => p.value).join(', ')})`,
+        dAt,
+        `alphas equal to a_k / (a1 + … + a${m}), or 'dirichlet: { concentration: ${total.toPrecision(4)} }' to keep the stated alphas as the mean`,
+      );
+    }
+    return { a, at: dAt };
+  }
+  const concentration = body !== null && typeof body === 'object' ? Number((body as Record<string, unknown>).concentration) : NaN;
+  if (!(concentration > 0) || !Number.isFinite(concentration) || Object.keys(body as object).length !== 1) {
+    throw new StudyError(`common-cause group '${id}': the Dirichlet needs a positive 'concentration' or a list of its parameters`, dAt, form);
+  }
+  if (alphas.some((p) => !(p.value > 0))) {
+    throw new StudyError(`common-cause group '${id}': a Dirichlet needs every alpha factor above 0`, dAt, 'alphas above 0 (a factor of exactly 0 cannot vary)');
+  }
+  return { a: alphas.map((p) => concentration * p.value), at: dAt };
 }
 
 function readScenario(

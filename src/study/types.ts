@@ -290,6 +290,12 @@ export interface CommonCauseGroup {
   testing: 'staggered' | 'non-staggered';
   /** Method parameter name (`beta`; `beta`,`gamma`,`delta`…; `alpha1`…`alphaM`) → parameter key. */
   fields: Record<string, string>;
+  /**
+   * Alpha-factor only: the joint uncertainty of alpha1…alphaM, a Dirichlet distribution with these
+   * parameters a_1…a_M (NUREG/CR-5485's treatment of alpha-factor uncertainty). Its mean a_k/Σa is
+   * the stated alphas.
+   */
+  dirichlet?: { a: number[]; at: Pos };
   at: Pos;
 }
 

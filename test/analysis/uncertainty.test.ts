@@ -147,6 +147,21 @@ describe('other distributions through the same path', () => {
     expect(u.cdf[u.cdf.length - 1]!.value).toBe(1);
   });
 
+  it('the clipped trials become a sampled-probability-clipped warning with their count and the parameter that can exceed 1', () => {
+    const study = oneEvent('{ lognormal: { median: 0.5, ef: 10 } }', '  samples: 5000\n  seed: 2\n  horizon: 0', '0.5');
+    const r = analyze(study);
+    const w = r.warnings.filter((x) => x.code === 'sampled-probability-clipped');
+    expect(w).toHaveLength(1);
+    const n = r.uncertainty![0]!.clipped_trials;
+    expect(w[0]!.message).toContain(`in ${n.toLocaleString('en-US')} of 5,000 Monte Carlo trials`);
+    expect(w[0]!.message).toContain("'e.probability' can exceed 1");
+    expect(w[0]!.at?.file).toBe('events.yaml');
+    // A beta stays within [0, 1]: nothing clipped, no warning (common practice, no source).
+    const bounded = analyze(oneEvent('{ beta: { a: 2, b: 2 } }', '  samples: 2000\n  seed: 2\n  horizon: 0', '0.5'));
+    expect(bounded.uncertainty![0]!.clipped_trials).toBe(0);
+    expect(bounded.warnings.some((x) => x.code === 'sampled-probability-clipped')).toBe(false);
+  });
+
   it('an uncertainty no event reads is not sampled, and results.warnings says so', () => {
     const study = studyOf({
       events: `classes:\n  spare: { model: fixed, probability: { value: 1e-2, source: test-data, uncertainty: { lognormal: { median: 1e-2, ef: 3 } } } }\nevents:\n  e: { title: One event (invented), model: fixed, probability: { value: 1e-3, source: test-data, uncertainty: { lognormal: { median: 1e-3, ef: 3 } } } }\n`,

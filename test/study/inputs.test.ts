@@ -201,7 +201,7 @@ describe('messages', () => {
   it('a misspelt option: faultbook\'s own message with the nearest option', async () => {
     const r = await faultbook('run', 'somewhere', '--ouut', 'x');
     expect(r.code).toBe(2);
-    expect(r.stderr).toBe("error: faultbook run has no option '--ouut'\n  expected: one of: --help, --out, --format, --paper, --quiet; did you mean '--out'?\n");
+    expect(r.stderr).toBe("error: faultbook run has no option '--ouut'\n  expected: one of: --help, --out, --format, --paper, --threads, --quiet; did you mean '--out'?\n");
   });
 
   it('a misspelt command gets "did you mean"', async () => {
