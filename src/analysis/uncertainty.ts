@@ -6,7 +6,6 @@
  * (`EventPlan`) and the tops through the prepared diagram pass, all without re-reading or
  * re-building anything. Seeded by settings.seed: the same study gives the same numbers.
  */
-import { notSampledWarning } from './input-warnings.js';
 import { flattenDiagram } from '../logic/flat-diagram.js';
 import type { Study } from '../study/types.js';
 import type { Stage } from './analyze.js';
