@@ -138,19 +138,19 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
     pageBreakBefore: (node, nodes) =>
       node.headlineLevel !== undefined && nodes.getFollowingNodesOnPage().every((n) => n.canvas !== undefined),
     content,
-    defaultStyle: { font: 'Roboto', fontSize: 9, lineHeight: 1.25, color: INK },
+    defaultStyle: { font: 'Roboto', fontSize: 8.5, lineHeight: 1.18, color: INK },
     styles: STYLES,
   };
 }
 
 const STYLES: TDocumentDefinitions['styles'] = {
-  body: { margin: [0, 0, 0, 6] },
+  body: { margin: [0, 0, 0, 4] },
   coverFacility: { fontSize: 10, color: MUTED, characterSpacing: 1.2 },
   coverTitle: { fontSize: 22, bold: true, lineHeight: 1.15, margin: [0, 6, 0, 4] },
   coverKind: { fontSize: 12, color: ACCENT, margin: [0, 0, 0, 8] },
   coverMeta: { fontSize: 9.5, color: MUTED },
-  h2: { fontSize: 14, bold: true, margin: [0, 14, 0, 2] },
-  h3: { fontSize: 10.5, bold: true, margin: [0, 10, 0, 4] },
+  h2: { fontSize: 13, bold: true, margin: [0, 10, 0, 2] },
+  h3: { fontSize: 10, bold: true, margin: [0, 7, 0, 3] },
   mdHeading: { fontSize: 9.5, bold: true, margin: [0, 6, 0, 3] },
   tocTitle: { fontSize: 11, bold: true, margin: [0, 16, 0, 6] },
   tocNumber: { color: ACCENT, bold: true },
@@ -182,8 +182,8 @@ const LAYOUTS: Record<string, CustomTableLayout> = {
     hLineColor: (i, node) => (i === (node.table.headerRows ?? 0) ? '#8a949f' : RULE),
     paddingLeft: () => 4,
     paddingRight: () => 4,
-    paddingTop: () => 2.5,
-    paddingBottom: () => 2.5,
+    paddingTop: () => 1.6,
+    paddingBottom: () => 1.6,
   },
   keyValue: {
     hLineWidth: () => 0.4,
@@ -191,8 +191,8 @@ const LAYOUTS: Record<string, CustomTableLayout> = {
     hLineColor: () => RULE,
     paddingLeft: () => 5,
     paddingRight: () => 5,
-    paddingTop: () => 3,
-    paddingBottom: () => 3,
+    paddingTop: () => 2,
+    paddingBottom: () => 2,
   },
   listing: {
     hLineWidth: (i, node) => (i === 0 || i === node.table.body.length ? 0.5 : 0),
@@ -266,7 +266,7 @@ function sectionContent(section: Section, view: Appendix, afterLandscape = false
   } as Content;
   const rule: Content = {
     canvas: [{ type: 'line', x1: 0, y1: 2, x2: contentBox(view.paper).width, y2: 2, lineWidth: 1.2, lineColor: ACCENT }],
-    margin: [0, 0, 0, 8],
+    margin: [0, 0, 0, 6],
   };
   // A wide logic diagram takes a landscape page (consecutive ones share landscape pages); the
   // first block after it starts a new portrait page.
@@ -391,7 +391,7 @@ function tableContent(block: TableBlock): Content {
       table,
       ...(block.note ? [{ text: block.note, style: 'note' } as Content] : []),
     ],
-    margin: [0, 4, 0, 10],
+    margin: [0, 2, 0, 7],
   };
 }
 
@@ -445,7 +445,7 @@ function calloutContent(block: CalloutBlock): Content {
       paddingTop: () => 6,
       paddingBottom: () => 3,
     },
-    margin: [0, 4, 0, 10],
+    margin: [0, 3, 0, 7],
   } as Content;
 }
 
@@ -460,7 +460,7 @@ function keyValueContent(block: KeyValueBlock): Content {
       ]),
     },
     layout: 'keyValue',
-    margin: [0, 2, 0, 10],
+    margin: [0, 2, 0, 7],
   } as Content;
 }
 
