@@ -464,8 +464,15 @@ function keyValueContent(block: KeyValueBlock): Content {
   } as Content;
 }
 
-/** Listings whose lines are this short (a few header lines aside, which wrap) are set in two columns: life-record CSVs. */
-const NARROW_LISTING = 56;
+/**
+ * Listings whose lines mostly fit half the page are set in two columns (life-record CSVs, and the
+ * YAML files, whose long lines are mostly comments and descriptions): at 6.5 pt a half column holds
+ * about 64 characters. The few longer lines wrap inside their numbered row, so every line stays whole
+ * and is still found by its number.
+ */
+const NARROW_LISTING = 64;
+/** At most this share of a listing's lines may wrap for it to be set in two columns. */
+const WRAPPED_SHARE = 0.25;
 
 function preContent(block: PreBlock): Content {
   const width = String(block.lines.length).length * 4.5 + 6;
@@ -481,8 +488,7 @@ function preContent(block: PreBlock): Content {
     },
     layout: 'listing',
   });
-  const narrow = block.lines.length > 24 && block.lines.filter((l) => l.length > NARROW_LISTING).length <= 3;
-  const half = Math.ceil(block.lines.length / 2);
+  const narrow = block.lines.length > 24 && block.lines.filter((l) => l.length > NARROW_LISTING).length <= Math.max(3, WRAPPED_SHARE * block.lines.length);
   return {
     stack: [
       {
@@ -492,9 +498,30 @@ function preContent(block: PreBlock): Content {
         ],
         margin: [0, 8, 0, 3],
       },
-      narrow
-        ? ({ columns: [listing(0, block.lines.slice(0, half)), listing(half, block.lines.slice(half))], columnGap: 8 } as Content)
-        : listing(0, block.lines),
+      ...(narrow ? twoColumnChunks(block.lines, listing) : [listing(0, block.lines)]),
     ],
   } as Content;
+}
+
+/** Lines per column of one two-column chunk of a listing. */
+const CHUNK_ROWS = 24;
+
+/**
+ * A two-column listing as short chunks read left column then right (lines 1–24 | 25–48, then
+ * 49–72 | 73–96 …), each chunk kept on one page: two columns running over several pages would
+ * put line 200 beside line 20. The last chunk splits its lines evenly.
+ */
+function twoColumnChunks(lines: string[], listing: (from: number, lines: string[]) => Content): Content[] {
+  const chunks: Content[] = [];
+  for (let start = 0; start < lines.length; start += 2 * CHUNK_ROWS) {
+    const count = Math.min(2 * CHUNK_ROWS, lines.length - start);
+    const left = Math.ceil(count / 2);
+    chunks.push({
+      columns: [listing(start, lines.slice(start, start + left)), listing(start + left, lines.slice(start + left, start + count))],
+      columnGap: 8,
+      unbreakable: true,
+      margin: [0, 0, 0, 3],
+    } as Content);
+  }
+  return chunks;
 }
