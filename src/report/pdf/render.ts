@@ -472,7 +472,7 @@ function keyValueContent(block: KeyValueBlock): Content {
  */
 const NARROW_LISTING = 64;
 /** At most this share of a listing's lines may wrap for it to be set in two columns. */
-const WRAPPED_SHARE = 0.25;
+const WRAPPED_SHARE = 0.3;
 
 function preContent(block: PreBlock): Content {
   const width = String(block.lines.length).length * 4.5 + 6;
