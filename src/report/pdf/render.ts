@@ -410,7 +410,7 @@ function figureContent(block: FigureBlock, view: Appendix): Content {
         ...(last && block.note ? [{ text: block.note, style: 'note' } as Content] : []),
       ],
       unbreakable: true,
-      margin: [0, 4, 0, 8],
+      margin: [0, 2, 0, 5],
       ...(i > 0 ? { pageBreak: 'before' } : {}),
     } as Content;
   });
@@ -504,11 +504,11 @@ function preContent(block: PreBlock): Content {
 }
 
 /** Lines per column of one two-column chunk of a listing. */
-const CHUNK_ROWS = 24;
+const CHUNK_ROWS = 16;
 
 /**
- * A two-column listing as short chunks read left column then right (lines 1–24 | 25–48, then
- * 49–72 | 73–96 …), each chunk kept on one page: two columns running over several pages would
+ * A two-column listing as short chunks read left column then right (lines 1–16 | 17–32, then
+ * 33–48 | 49–64 …), each chunk kept on one page: two columns running over several pages would
  * put line 200 beside line 20. The last chunk splits its lines evenly.
  */
 function twoColumnChunks(lines: string[], listing: (from: number, lines: string[]) => Content): Content[] {
