@@ -138,7 +138,7 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
     pageBreakBefore: (node, nodes) =>
       node.headlineLevel !== undefined && nodes.getFollowingNodesOnPage().every((n) => n.canvas !== undefined),
     content,
-    defaultStyle: { font: 'Roboto', fontSize: 8.5, lineHeight: 1.18, color: INK },
+    defaultStyle: { font: 'Roboto', fontSize: 8.2, lineHeight: 1.15, color: INK },
     styles: STYLES,
   };
 }
@@ -161,10 +161,10 @@ const STYLES: TDocumentDefinitions['styles'] = {
   tableCell: { fontSize: 7, lineHeight: 1.12 },
   id: { bold: true, color: '#263a5a' },
   muted: { color: MUTED },
-  kvKey: { fontSize: 8.5, bold: true, color: MUTED, fillColor: ZEBRA },
-  kvValue: { fontSize: 8.5 },
+  kvKey: { fontSize: 8, bold: true, color: MUTED, fillColor: ZEBRA },
+  kvValue: { fontSize: 8 },
   calloutTitle: { bold: true, margin: [0, 0, 0, 3] },
-  calloutText: { fontSize: 8.5, margin: [0, 0, 0, 3] },
+  calloutText: { fontSize: 8, margin: [0, 0, 0, 3] },
   listingLabel: { fontSize: 8.5, bold: true, color: '#263a5a' },
   listingDetail: { fontSize: 7, color: MUTED },
   listing: { fontSize: 6.5, lineHeight: 1.0, preserveLeadingSpaces: true },
@@ -182,8 +182,8 @@ const LAYOUTS: Record<string, CustomTableLayout> = {
     hLineColor: (i, node) => (i === (node.table.headerRows ?? 0) ? '#8a949f' : RULE),
     paddingLeft: () => 4,
     paddingRight: () => 4,
-    paddingTop: () => 1.6,
-    paddingBottom: () => 1.6,
+    paddingTop: () => 1.3,
+    paddingBottom: () => 1.3,
   },
   keyValue: {
     hLineWidth: () => 0.4,
@@ -472,7 +472,7 @@ function keyValueContent(block: KeyValueBlock): Content {
  */
 const NARROW_LISTING = 64;
 /** At most this share of a listing's lines may wrap for it to be set in two columns. */
-const WRAPPED_SHARE = 0.3;
+const WRAPPED_SHARE = 0.5;
 
 function preContent(block: PreBlock): Content {
   const width = String(block.lines.length).length * 4.5 + 6;
@@ -504,11 +504,11 @@ function preContent(block: PreBlock): Content {
 }
 
 /** Lines per column of one two-column chunk of a listing. */
-const CHUNK_ROWS = 16;
+const CHUNK_ROWS = 10;
 
 /**
- * A two-column listing as short chunks read left column then right (lines 1–16 | 17–32, then
- * 33–48 | 49–64 …), each chunk kept on one page: two columns running over several pages would
+ * A two-column listing as short chunks read left column then right (lines 1–10 | 11–20, then
+ * 21–30 | 31–40 …), each chunk kept on one page: two columns running over several pages would
  * put line 200 beside line 20. The last chunk splits its lines evenly.
  */
 function twoColumnChunks(lines: string[], listing: (from: number, lines: string[]) => Content): Content[] {
@@ -520,7 +520,7 @@ function twoColumnChunks(lines: string[], listing: (from: number, lines: string[
       columns: [listing(start, lines.slice(start, start + left)), listing(start + left, lines.slice(start + left, start + count))],
       columnGap: 8,
       unbreakable: true,
-      margin: [0, 0, 0, 3],
+      margin: [0, 0, 0, 2],
     } as Content);
   }
   return chunks;
