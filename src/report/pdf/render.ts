@@ -144,17 +144,17 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
 }
 
 const STYLES: TDocumentDefinitions['styles'] = {
-  body: { margin: [0, 0, 0, 4] },
+  body: { margin: [0, 0, 0, 3] },
   coverFacility: { fontSize: 10, color: MUTED, characterSpacing: 1.2 },
   coverTitle: { fontSize: 22, bold: true, lineHeight: 1.15, margin: [0, 6, 0, 4] },
   coverKind: { fontSize: 12, color: ACCENT, margin: [0, 0, 0, 8] },
   coverMeta: { fontSize: 9.5, color: MUTED },
-  h2: { fontSize: 13, bold: true, margin: [0, 10, 0, 2] },
-  h3: { fontSize: 10, bold: true, margin: [0, 7, 0, 3] },
+  h2: { fontSize: 12.5, bold: true, margin: [0, 8, 0, 1] },
+  h3: { fontSize: 9.5, bold: true, margin: [0, 6, 0, 2] },
   mdHeading: { fontSize: 9.5, bold: true, margin: [0, 6, 0, 3] },
   tocTitle: { fontSize: 11, bold: true, margin: [0, 16, 0, 6] },
   tocNumber: { color: ACCENT, bold: true },
-  caption: { fontSize: 8, color: MUTED, margin: [0, 4, 0, 3] },
+  caption: { fontSize: 8, color: MUTED, margin: [0, 3, 0, 2] },
   captionLabel: { bold: true, color: INK },
   note: { fontSize: 7.5, color: MUTED, margin: [0, 3, 0, 0] },
   tableHeader: { fontSize: 7, bold: true, fillColor: HEAD },
@@ -170,7 +170,7 @@ const STYLES: TDocumentDefinitions['styles'] = {
   listing: { fontSize: 6.5, lineHeight: 1.0, preserveLeadingSpaces: true },
   lineNumber: { fontSize: 6.5, lineHeight: 1.0, color: '#9aa3ad', alignment: 'right' },
   codeBlock: { fontSize: 7.5, preserveLeadingSpaces: true, margin: [8, 2, 0, 6] },
-  list: { margin: [0, 0, 0, 6] },
+  list: { margin: [0, 0, 0, 4] },
   quote: { margin: [12, 0, 0, 6], color: MUTED },
   running: { fontSize: 7.5, color: MUTED },
 };
@@ -391,7 +391,7 @@ function tableContent(block: TableBlock): Content {
       table,
       ...(block.note ? [{ text: block.note, style: 'note' } as Content] : []),
     ],
-    margin: [0, 2, 0, 7],
+    margin: [0, 2, 0, 5],
   };
 }
 
@@ -445,7 +445,7 @@ function calloutContent(block: CalloutBlock): Content {
       paddingTop: () => 6,
       paddingBottom: () => 3,
     },
-    margin: [0, 3, 0, 7],
+    margin: [0, 2, 0, 5],
   } as Content;
 }
 
@@ -460,7 +460,7 @@ function keyValueContent(block: KeyValueBlock): Content {
       ]),
     },
     layout: 'keyValue',
-    margin: [0, 2, 0, 7],
+    margin: [0, 2, 0, 5],
   } as Content;
 }
 
@@ -496,7 +496,7 @@ function preContent(block: PreBlock): Content {
           { text: block.label, style: 'listingLabel', width: 'auto' },
           ...(block.detail ? [{ text: block.detail, style: 'listingDetail', alignment: 'right', width: '*' } as Content] : []),
         ],
-        margin: [0, 8, 0, 3],
+        margin: [0, 6, 0, 2],
       },
       ...(narrow ? twoColumnChunks(block.lines, listing) : [listing(0, block.lines)]),
     ],
