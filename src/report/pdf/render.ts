@@ -465,14 +465,24 @@ function keyValueContent(block: KeyValueBlock): Content {
 }
 
 /**
- * Listings whose lines mostly fit half the page are set in two columns (life-record CSVs, and the
- * YAML files, whose long lines are mostly comments and descriptions): at 6.5 pt a half column holds
- * about 64 characters. The few longer lines wrap inside their numbered row, so every line stays whole
- * and is still found by its number.
+ * Listings whose lines mostly fit a half (third) of the page are set in two (three) columns:
+ * life-record CSVs, and the YAML and Markdown inputs, whose long lines are mostly comments, prose
+ * and descriptions. At 6.5 pt a half column holds about 64 characters, a third about 40. The longer
+ * lines wrap inside their numbered row, so every line stays whole and is still found by its number.
  */
-const NARROW_LISTING = 64;
-/** At most this share of a listing's lines may wrap for it to be set in two columns. */
-const WRAPPED_SHARE = 0.5;
+const COLUMN_CHARS: Record<number, number> = { 2: 64, 3: 40 };
+/** At most this share of a listing's lines may wrap for it to be set in two columns (three: a tenth). */
+const WRAPPED_SHARE: Record<number, number> = { 2: 0.5, 3: 0.1 };
+
+/** Columns a listing is set in: the most whose width its lines fit (see COLUMN_CHARS). */
+function listingColumns(lines: string[]): number {
+  if (lines.length <= 24) return 1;
+  for (const n of [3, 2]) {
+    const wrapped = lines.filter((l) => l.length > COLUMN_CHARS[n]!).length;
+    if (wrapped <= Math.max(3, WRAPPED_SHARE[n]! * lines.length)) return n;
+  }
+  return 1;
+}
 
 function preContent(block: PreBlock): Content {
   const width = String(block.lines.length).length * 4.5 + 6;
@@ -488,40 +498,38 @@ function preContent(block: PreBlock): Content {
     },
     layout: 'listing',
   });
-  const narrow = block.lines.length > 24 && block.lines.filter((l) => l.length > NARROW_LISTING).length <= Math.max(3, WRAPPED_SHARE * block.lines.length);
-  return {
-    stack: [
-      {
-        columns: [
-          { text: block.label, style: 'listingLabel', width: 'auto' },
-          ...(block.detail ? [{ text: block.detail, style: 'listingDetail', alignment: 'right', width: '*' } as Content] : []),
-        ],
-        margin: [0, 6, 0, 2],
-      },
-      ...(narrow ? twoColumnChunks(block.lines, listing) : [listing(0, block.lines)]),
+  const label: Content = {
+    columns: [
+      { text: block.label, style: 'listingLabel', width: 'auto' },
+      ...(block.detail ? [{ text: block.detail, style: 'listingDetail', alignment: 'right', width: '*' } as Content] : []),
     ],
-  } as Content;
+    margin: [0, 6, 0, 2],
+  };
+  const columns = listingColumns(block.lines);
+  if (columns === 1) return { stack: [label, listing(0, block.lines)] } as Content;
+  // The file's name stays with its first lines.
+  const [first, ...rest] = columnChunks(block.lines, columns, listing);
+  return { stack: [{ stack: [label, first!], unbreakable: true }, ...rest] } as Content;
 }
 
-/** Lines per column of one two-column chunk of a listing. */
+/** Lines per column of one chunk of a listing set in columns. */
 const CHUNK_ROWS = 10;
 
 /**
- * A two-column listing as short chunks read left column then right (lines 1–10 | 11–20, then
- * 21–30 | 31–40 …), each chunk kept on one page: two columns running over several pages would
- * put line 200 beside line 20. The last chunk splits its lines evenly.
+ * A listing in columns as short chunks read column by column (two columns: lines 1–10 | 11–20,
+ * then 21–30 | 31–40 …), each chunk kept on one page: columns running over several pages would
+ * put line 200 beside line 20. The last chunk shares its lines evenly between the columns.
  */
-function twoColumnChunks(lines: string[], listing: (from: number, lines: string[]) => Content): Content[] {
+function columnChunks(lines: string[], columns: number, listing: (from: number, lines: string[]) => Content): Content[] {
   const chunks: Content[] = [];
-  for (let start = 0; start < lines.length; start += 2 * CHUNK_ROWS) {
-    const count = Math.min(2 * CHUNK_ROWS, lines.length - start);
-    const left = Math.ceil(count / 2);
-    chunks.push({
-      columns: [listing(start, lines.slice(start, start + left)), listing(start + left, lines.slice(start + left, start + count))],
-      columnGap: 8,
-      unbreakable: true,
-      margin: [0, 0, 0, 2],
-    } as Content);
+  for (let start = 0; start < lines.length; start += columns * CHUNK_ROWS) {
+    const count = Math.min(columns * CHUNK_ROWS, lines.length - start);
+    const per = Math.ceil(count / columns);
+    const parts: Content[] = [];
+    for (let from = start; from < start + count; from += per) parts.push(listing(from, lines.slice(from, Math.min(from + per, start + count))));
+    // Keep the column widths of a short last chunk the same as the others.
+    while (parts.length < columns) parts.push({ text: '' });
+    chunks.push({ columns: parts, columnGap: 8, unbreakable: true, margin: [0, 0, 0, 2] } as Content);
   }
   return chunks;
 }
