@@ -1,4 +1,4 @@
-// Confidence bounds: Fisher matrix and likelihood ratio (src/reliability/fit/bounds.ts).
+// Confidence bounds: Fisher information and likelihood ratio (src/reliability/fit/bounds.ts).
 import { describe, expect, it } from 'vitest';
 import * as weibull from '@stdlib/stats-base-dists-weibull';
 import * as chisquare from '@stdlib/stats-base-dists-chisquare';
@@ -10,7 +10,7 @@ import { INVENTED_CENSORED, ballBearings, weibullSample } from './helpers.js';
 
 const width = (b: { lower: number; upper: number }): number => b.upper / b.lower;
 
-describe('Fisher-matrix bounds', () => {
+describe('Fisher-information bounds', () => {
   it('widen as the data shrink (every other bearing)', () => {
     // Fewer lives, less information, wider bounds (common practice, no source).
     const all = ballBearings();
@@ -187,7 +187,7 @@ describe('MLE and rank on the same censored data', () => {
   });
 });
 
-describe('Fisher-matrix bounds at any scale', () => {
+describe('Fisher-information bounds at any scale', () => {
   // The Weibull is a scale family: multiplying every life by c multiplies η and its bounds by c
   // and leaves β and its bounds unchanged (common practice, no source). So bounds relative to η
   // must be the same for data ×1e-200, ×1 and ×1e200 (forming the information in (β, η) and

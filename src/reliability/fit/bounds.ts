@@ -6,7 +6,7 @@
  * interval of level 2C − 1 (C = 0.95 gives the usual two-sided 90%; C = 0.5 gives the estimate
  * itself). Reliability practice quotes lower bounds on life one-sided, hence this choice.
  *
- * Fisher-matrix bounds: the observed information on (ln β, ln η) is J·(−H)·J with H the Hessian of
+ * Fisher-information bounds: the observed information on (ln β, ln η) is J·(−H)·J with H the Hessian of
  * ℓ in (β, η) and J = diag(β, η) (at the MLE the gradient is zero, so this is exactly the observed
  * information of the log parameters). Its inverse is the covariance of (ln β, ln η); bounds are
  * normal on the log scale (so always positive), and for a life or F(t) the delta method carries the
@@ -88,7 +88,7 @@ export function weibullLife(fit: { shape: number; scale: number; location?: numb
   return (fit.location ?? 0) + fit.scale * Math.pow(-Math.log1p(-p), 1 / fit.shape);
 }
 
-/** Fisher-matrix bounds on β, η and the life t_p (B10 for p = 0.1). */
+/** Fisher-information bounds on β, η and the life t_p (B10 for p = 0.1). */
 export function fisherBounds(fit: FittedWeibull, level: number, p = 0.1): { shape: Bound; scale: Bound; life: Bound } {
   checkLevel(level);
   const z = normalQuantile(level);
@@ -107,7 +107,7 @@ export function fisherBounds(fit: FittedWeibull, level: number, p = 0.1): { shap
 }
 
 /**
- * Unreliability F(t) of a fit with its Fisher-matrix bounds at life t (for charts). Bounds are
+ * Unreliability F(t) of a fit with its Fisher-information bounds at life t (for charts). Bounds are
  * normal on w = ln(−ln R) = β(ln(t − γ) − ln η), whose gradient on (ln β, ln η) is (w, −β).
  */
 export function weibullCdfBounds(fit: FittedWeibull, t: number, level: number): { F: number; lower: number; upper: number } {

@@ -128,7 +128,7 @@ export function fitWeibull(input: readonly LifeObservation[], options: FitOption
     // curvature at the MLE is then the honest stand-in.
     const mle = weibullMle(shifted);
     covarianceLog = logCovariance(shifted, mle.shape, mle.scale);
-    warnings.push('Fisher-matrix bounds use the information at the maximum-likelihood estimates (not positive definite at the rank estimates)');
+    warnings.push('Fisher-information bounds use the information at the maximum-likelihood estimates (not positive definite at the rank estimates)');
   }
   if (!covarianceLog) {
     throw new FitError('the information matrix is not positive definite: the data do not determine both shape and scale', 'more failures at different lives');
