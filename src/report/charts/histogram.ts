@@ -17,7 +17,7 @@ export interface HistogramOptions {
 }
 
 export function histogramChart(h: { edges: number[]; counts: number[] }, opts: HistogramOptions): FigurePart {
-  const frameHeight = 150;
+  const frameHeight = 115;
   const x = logAxis([...h.edges, ...opts.markers.map((m) => m.value)], opts.xTitle);
   const y = linearAxis(h.counts, 'Trials per bin', { zero: true, format: formatCount });
   const left = leftMargin(y);

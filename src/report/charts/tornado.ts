@@ -19,7 +19,7 @@ export interface TornadoRow {
 }
 
 const LOW_FILL = '#9fb3cf';
-const ROW = 13;
+const ROW = 12;
 const BAR = 8;
 
 export function tornadoChart(rows: TornadoRow[], base: number, opts: { width: number; label: string; axisTitle: string }): FigurePart {

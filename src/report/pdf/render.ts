@@ -138,39 +138,39 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
     pageBreakBefore: (node, nodes) =>
       node.headlineLevel !== undefined && nodes.getFollowingNodesOnPage().every((n) => n.canvas !== undefined),
     content,
-    defaultStyle: { font: 'Roboto', fontSize: 9, lineHeight: 1.25, color: INK },
+    defaultStyle: { font: 'Roboto', fontSize: 8.2, lineHeight: 1.15, color: INK },
     styles: STYLES,
   };
 }
 
 const STYLES: TDocumentDefinitions['styles'] = {
-  body: { margin: [0, 0, 0, 6] },
+  body: { margin: [0, 0, 0, 3] },
   coverFacility: { fontSize: 10, color: MUTED, characterSpacing: 1.2 },
   coverTitle: { fontSize: 22, bold: true, lineHeight: 1.15, margin: [0, 6, 0, 4] },
   coverKind: { fontSize: 12, color: ACCENT, margin: [0, 0, 0, 8] },
   coverMeta: { fontSize: 9.5, color: MUTED },
-  h2: { fontSize: 14, bold: true, margin: [0, 14, 0, 2] },
-  h3: { fontSize: 10.5, bold: true, margin: [0, 10, 0, 4] },
+  h2: { fontSize: 12.5, bold: true, margin: [0, 8, 0, 1] },
+  h3: { fontSize: 9.5, bold: true, margin: [0, 6, 0, 2] },
   mdHeading: { fontSize: 9.5, bold: true, margin: [0, 6, 0, 3] },
   tocTitle: { fontSize: 11, bold: true, margin: [0, 16, 0, 6] },
   tocNumber: { color: ACCENT, bold: true },
-  caption: { fontSize: 8, color: MUTED, margin: [0, 4, 0, 3] },
+  caption: { fontSize: 8, color: MUTED, margin: [0, 3, 0, 2] },
   captionLabel: { bold: true, color: INK },
   note: { fontSize: 7.5, color: MUTED, margin: [0, 3, 0, 0] },
-  tableHeader: { fontSize: 7.5, bold: true, fillColor: HEAD },
-  tableCell: { fontSize: 7.5, lineHeight: 1.15 },
+  tableHeader: { fontSize: 7, bold: true, fillColor: HEAD },
+  tableCell: { fontSize: 7, lineHeight: 1.12 },
   id: { bold: true, color: '#263a5a' },
   muted: { color: MUTED },
-  kvKey: { fontSize: 8.5, bold: true, color: MUTED, fillColor: ZEBRA },
-  kvValue: { fontSize: 8.5 },
+  kvKey: { fontSize: 8, bold: true, color: MUTED, fillColor: ZEBRA },
+  kvValue: { fontSize: 8 },
   calloutTitle: { bold: true, margin: [0, 0, 0, 3] },
-  calloutText: { fontSize: 8.5, margin: [0, 0, 0, 3] },
+  calloutText: { fontSize: 8, margin: [0, 0, 0, 3] },
   listingLabel: { fontSize: 8.5, bold: true, color: '#263a5a' },
   listingDetail: { fontSize: 7, color: MUTED },
   listing: { fontSize: 6.5, lineHeight: 1.0, preserveLeadingSpaces: true },
   lineNumber: { fontSize: 6.5, lineHeight: 1.0, color: '#9aa3ad', alignment: 'right' },
   codeBlock: { fontSize: 7.5, preserveLeadingSpaces: true, margin: [8, 2, 0, 6] },
-  list: { margin: [0, 0, 0, 6] },
+  list: { margin: [0, 0, 0, 4] },
   quote: { margin: [12, 0, 0, 6], color: MUTED },
   running: { fontSize: 7.5, color: MUTED },
 };
@@ -182,8 +182,8 @@ const LAYOUTS: Record<string, CustomTableLayout> = {
     hLineColor: (i, node) => (i === (node.table.headerRows ?? 0) ? '#8a949f' : RULE),
     paddingLeft: () => 4,
     paddingRight: () => 4,
-    paddingTop: () => 2.5,
-    paddingBottom: () => 2.5,
+    paddingTop: () => 1.3,
+    paddingBottom: () => 1.3,
   },
   keyValue: {
     hLineWidth: () => 0.4,
@@ -191,8 +191,8 @@ const LAYOUTS: Record<string, CustomTableLayout> = {
     hLineColor: () => RULE,
     paddingLeft: () => 5,
     paddingRight: () => 5,
-    paddingTop: () => 3,
-    paddingBottom: () => 3,
+    paddingTop: () => 2,
+    paddingBottom: () => 2,
   },
   listing: {
     hLineWidth: (i, node) => (i === 0 || i === node.table.body.length ? 0.5 : 0),
@@ -266,7 +266,7 @@ function sectionContent(section: Section, view: Appendix, afterLandscape = false
   } as Content;
   const rule: Content = {
     canvas: [{ type: 'line', x1: 0, y1: 2, x2: contentBox(view.paper).width, y2: 2, lineWidth: 1.2, lineColor: ACCENT }],
-    margin: [0, 0, 0, 8],
+    margin: [0, 0, 0, 6],
   };
   // A wide logic diagram takes a landscape page (consecutive ones share landscape pages); the
   // first block after it starts a new portrait page.
@@ -391,7 +391,7 @@ function tableContent(block: TableBlock): Content {
       table,
       ...(block.note ? [{ text: block.note, style: 'note' } as Content] : []),
     ],
-    margin: [0, 4, 0, 10],
+    margin: [0, 2, 0, 5],
   };
 }
 
@@ -410,7 +410,7 @@ function figureContent(block: FigureBlock, view: Appendix): Content {
         ...(last && block.note ? [{ text: block.note, style: 'note' } as Content] : []),
       ],
       unbreakable: true,
-      margin: [0, 4, 0, 8],
+      margin: [0, 2, 0, 5],
       ...(i > 0 ? { pageBreak: 'before' } : {}),
     } as Content;
   });
@@ -445,7 +445,7 @@ function calloutContent(block: CalloutBlock): Content {
       paddingTop: () => 6,
       paddingBottom: () => 3,
     },
-    margin: [0, 4, 0, 10],
+    margin: [0, 2, 0, 5],
   } as Content;
 }
 
@@ -460,12 +460,29 @@ function keyValueContent(block: KeyValueBlock): Content {
       ]),
     },
     layout: 'keyValue',
-    margin: [0, 2, 0, 10],
+    margin: [0, 2, 0, 5],
   } as Content;
 }
 
-/** Listings whose lines are this short (a few header lines aside, which wrap) are set in two columns: life-record CSVs. */
-const NARROW_LISTING = 56;
+/**
+ * Listings whose lines mostly fit a half (third) of the page are set in two (three) columns:
+ * life-record CSVs, and the YAML and Markdown inputs, whose long lines are mostly comments, prose
+ * and descriptions. At 6.5 pt a half column holds about 64 characters, a third about 40. The longer
+ * lines wrap inside their numbered row, so every line stays whole and is still found by its number.
+ */
+const COLUMN_CHARS: Record<number, number> = { 2: 64, 3: 40 };
+/** At most this share of a listing's lines may wrap for it to be set in two columns (three: a tenth). */
+const WRAPPED_SHARE: Record<number, number> = { 2: 0.5, 3: 0.1 };
+
+/** Columns a listing is set in: the most whose width its lines fit (see COLUMN_CHARS). */
+function listingColumns(lines: string[]): number {
+  if (lines.length <= 24) return 1;
+  for (const n of [3, 2]) {
+    const wrapped = lines.filter((l) => l.length > COLUMN_CHARS[n]!).length;
+    if (wrapped <= Math.max(3, WRAPPED_SHARE[n]! * lines.length)) return n;
+  }
+  return 1;
+}
 
 function preContent(block: PreBlock): Content {
   const width = String(block.lines.length).length * 4.5 + 6;
@@ -481,20 +498,38 @@ function preContent(block: PreBlock): Content {
     },
     layout: 'listing',
   });
-  const narrow = block.lines.length > 24 && block.lines.filter((l) => l.length > NARROW_LISTING).length <= 3;
-  const half = Math.ceil(block.lines.length / 2);
-  return {
-    stack: [
-      {
-        columns: [
-          { text: block.label, style: 'listingLabel', width: 'auto' },
-          ...(block.detail ? [{ text: block.detail, style: 'listingDetail', alignment: 'right', width: '*' } as Content] : []),
-        ],
-        margin: [0, 8, 0, 3],
-      },
-      narrow
-        ? ({ columns: [listing(0, block.lines.slice(0, half)), listing(half, block.lines.slice(half))], columnGap: 8 } as Content)
-        : listing(0, block.lines),
+  const label: Content = {
+    columns: [
+      { text: block.label, style: 'listingLabel', width: 'auto' },
+      ...(block.detail ? [{ text: block.detail, style: 'listingDetail', alignment: 'right', width: '*' } as Content] : []),
     ],
-  } as Content;
+    margin: [0, 6, 0, 2],
+  };
+  const columns = listingColumns(block.lines);
+  if (columns === 1) return { stack: [label, listing(0, block.lines)] } as Content;
+  // The file's name stays with its first lines.
+  const [first, ...rest] = columnChunks(block.lines, columns, listing);
+  return { stack: [{ stack: [label, first!], unbreakable: true }, ...rest] } as Content;
+}
+
+/** Lines per column of one chunk of a listing set in columns. */
+const CHUNK_ROWS = 10;
+
+/**
+ * A listing in columns as short chunks read column by column (two columns: lines 1–10 | 11–20,
+ * then 21–30 | 31–40 …), each chunk kept on one page: columns running over several pages would
+ * put line 200 beside line 20. The last chunk shares its lines evenly between the columns.
+ */
+function columnChunks(lines: string[], columns: number, listing: (from: number, lines: string[]) => Content): Content[] {
+  const chunks: Content[] = [];
+  for (let start = 0; start < lines.length; start += columns * CHUNK_ROWS) {
+    const count = Math.min(columns * CHUNK_ROWS, lines.length - start);
+    const per = Math.ceil(count / columns);
+    const parts: Content[] = [];
+    for (let from = start; from < start + count; from += per) parts.push(listing(from, lines.slice(from, Math.min(from + per, start + count))));
+    // Keep the column widths of a short last chunk the same as the others.
+    while (parts.length < columns) parts.push({ text: '' });
+    chunks.push({ columns: parts, columnGap: 8, unbreakable: true, margin: [0, 0, 0, 2] } as Content);
+  }
+  return chunks;
 }

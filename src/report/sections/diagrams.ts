@@ -10,7 +10,6 @@ export const diagrams: SectionRule = (results, ctx) => {
     id: 'sec-diagrams',
     number: ctx.number,
     title: 'Logic diagrams',
-    newPage: true,
     blocks: [
       para(
         'The fault trees are drawn top-down with the usual symbols (first figure). Each box gives the identifier, the title ',

@@ -7,7 +7,7 @@ import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
 
 /** Widest plot: legible on A4 and on letter, both of which have about 500 pt of text width. */
-const PLOT_WIDTH = 380;
+const PLOT_WIDTH = 310;
 
 const METHOD_DETAIL: Record<FitResult['method'], string> = {
   mle: 'maximum likelihood, each suspension counted as a life known only to exceed its age (right-censored)',

@@ -66,7 +66,7 @@ export const forecast: SectionRule = (results, ctx) => {
       parts: [
         lineChart(
           series.map((f) => ({ name: f.scenario === undefined ? 'base case' : `${f.scenario} — ${f.title ?? ''}`, points: f.years.map((yr) => ({ x: yr.year, y: yr.tops[top.id]! })) })),
-          { width, label: `${figure}. ${caption}`, x, y, legend: true, frameHeight: 130 },
+          { width, label: `${figure}. ${caption}`, x, y, legend: true, frameHeight: 105 },
         ),
       ],
     });

@@ -94,7 +94,7 @@ function countBlocks(c: GateCountResult, ctx: BuildContext): Block[] {
           { name: 'exact (shared causes counted once)', points: c.exact.map((v, j) => ({ x: j, y: v })), markers: true },
           { name: `independent gates (${method})`, points: c.independent.map((v, j) => ({ x: j, y: v })), markers: true },
         ],
-        { width, label: `${figure}. ${caption}`, x, y, legend: true, frameHeight: 130 },
+        { width, label: `${figure}. ${caption}`, x, y, legend: true, frameHeight: 105 },
       ),
     ],
     note: 'Points of probability zero are not plotted on the logarithmic scale.',

@@ -63,7 +63,7 @@ export const resultsSection: SectionRule = (results, ctx) => {
       }),
     );
   }
-  return { id: 'sec-results', number: ctx.number, title: 'Results', newPage: true, blocks };
+  return { id: 'sec-results', number: ctx.number, title: 'Results', blocks };
 };
 
 function topBlocks(top: TopResult, nextTable: () => string): Block[] {

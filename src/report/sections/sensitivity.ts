@@ -166,7 +166,7 @@ function exerciseBlocks(results: Results, s: SensitivityResult, ctx: BuildContex
         label: `${figure}. ${caption}`,
         x,
         y,
-        frameHeight: 130,
+        frameHeight: 105,
         ...(base ? { references: [{ axis: 'y' as const, value: base.probability, label: `as studied ${formatProbability(base.probability)}` }] } : {}),
       }),
     ],
