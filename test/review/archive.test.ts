@@ -7,17 +7,12 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { toolVersion } from '../../src/package.js';
 import { gzipDeterministic } from '../../src/review/gzip.js';
 import { header, readTar, writeTar, type TarFile } from '../../src/review/tar.js';
-import { faultbook, tempDir as makeTempDir } from '../cli/helpers.js';
+import { faultbook, tempDir } from '../cli/helpers.js';
 import { BASE_EVENTS, P, writeStudy } from './studies.js';
 
 const ROOT = 'faultbook-archive/';
 
 const made: string[] = [];
-function tempDir(): string {
-  const dir = makeTempDir();
-  made.push(dir);
-  return dir;
-}
 afterAll(() => {
   for (const dir of made) rmSync(dir, { recursive: true, force: true });
 });

@@ -1,22 +1,13 @@
 import { execFileSync } from 'node:child_process';
-import { mkdirSync, readFileSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { crc32 as zlibCrc32, gunzipSync } from 'node:zlib';
 import fc from 'fast-check';
-import { afterAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { crc32, gunzipChecked, gzipDeterministic } from '../../src/review/gzip.js';
 import { ArchiveFormatError, header, readTar, writeTar } from '../../src/review/tar.js';
-import { tempDir as makeTempDir } from '../cli/helpers.js';
+import { tempDir } from '../temp.js';
 
-const made: string[] = [];
-function tempDir(): string {
-  const dir = makeTempDir();
-  made.push(dir);
-  return dir;
-}
-afterAll(() => {
-  for (const dir of made) rmSync(dir, { recursive: true, force: true });
-});
 
 const files = [
   { path: 'top/b.txt', data: Buffer.from('second\n') },
