@@ -29,38 +29,60 @@ import type { FailureModeSet } from '../study/types.js';
 
 /** Sum, uni-modal lower and upper bound of the probability that at least one mode occurs. */
 export function uniModalBounds(p: readonly number[]): { sum: number; lower: number; upper: number } {
+  const out = new Float64Array(3);
+  unionBounds(p, 0, 1, p.length, out, 0);
+  return { sum: out[0]!, lower: out[1]!, upper: out[2]! };
+}
+
+/**
+ * uniModalBounds on n values p[offset + i·stride], into out[at], out[at + 1], out[at + 2] (sum,
+ * lower, upper): the one implementation, allocation-free for the Monte Carlo.
+ */
+function unionBounds(p: ArrayLike<number>, offset: number, stride: number, n: number, out: Float64Array, at: number): void {
   let sum = 0;
   let lower = 0;
   let logSurvive = 0;
-  for (const x of p) {
+  for (let i = 0; i < n; i++) {
+    const x = p[offset + i * stride]!;
     sum += x;
     lower = Math.max(lower, x);
     logSurvive += Math.log1p(-x);
   }
+  out[at] = sum;
+  out[at + 1] = lower;
   // 1 − Π(1 − P_i) through log1p/expm1: accurate when every P_i is tiny.
-  return { sum, lower, upper: p.length === 0 ? 0 : -Math.expm1(logSurvive) };
+  out[at + 2] = n === 0 ? 0 : -Math.expm1(logSurvive);
 }
 
 /** The common-cause adjustment (item 4 above): each mode's share of the union under independence. */
 export function commonCauseAdjustment(p: readonly number[]): number[] {
   const n = p.length;
-  // dist = the Poisson-binomial of the other modes (poissonBinomial's recursion, on one reused array).
-  const dist = new Array<number>(n).fill(0);
-  return p.map((pi, i) => {
-    dist.fill(0);
+  const out = new Float64Array(n);
+  shareOfUnion(p, 0, 1, n, new Float64Array(n), out, 0, 1);
+  return Array.from(out);
+}
+
+/**
+ * commonCauseAdjustment on n values p[offset + i·stride], into out[at + i·outStride]; `dist` is
+ * working room of length ≥ n. dist is the Poisson-binomial of the other modes (poissonBinomial's
+ * recursion, on one reused array).
+ */
+function shareOfUnion(p: ArrayLike<number>, offset: number, stride: number, n: number, dist: Float64Array, out: Float64Array, at: number, outStride: number): void {
+  for (let i = 0; i < n; i++) {
+    dist.fill(0, 0, n);
     dist[0] = 1;
     let m = 0;
     for (let k = 0; k < n; k++) {
       if (k === i) continue;
-      const q = p[k]!;
+      const q = p[offset + k * stride]!;
       for (let j = m + 1; j >= 1; j--) dist[j] = dist[j]! * (1 - q) + dist[j - 1]! * q;
       dist[0] = dist[0]! * (1 - q);
       m += 1;
     }
     let share = 0;
     for (let c = 0; c < n; c++) share += dist[c]! / (c + 1);
-    return pi * share;
-  });
+    out[at + i * outStride] = p[offset + i * stride]! * share;
+  }
 }
 
 /** The numbers of one set of failure modes at one set of values. */
@@ -76,9 +98,107 @@ export interface ModeNumbers {
 }
 
 /**
+ * A set of modes prepared for repeated evaluation: where each mode's number in each range comes
+ * from, as indices, so an evaluation reads arrays only (no key lookup, no allocation).
+ */
+export interface ModePlan {
+  modes: number;
+  ranges: number;
+  /**
+   * source[i·R + r] for mode i in range r: ≥ 0, the slot of its probability among the values;
+   * < 0, −1 − the index of the tree outcome it is read from.
+   */
+  source: Int32Array;
+  /** The values it reads: slot and parameter key. */
+  reads: { slot: number; key: string }[];
+}
+
+/**
+ * The plan of one set: `slotOf(key)` places a parameter among the values, `outcomeOf(id)` is the
+ * index of a tree outcome in the outcome-by-range table the evaluation is given.
+ */
+export function modePlan(set: FailureModeSet, ranges: number, slotOf: (key: string) => number, outcomeOf: (id: string) => number): ModePlan {
+  const R = ranges;
+  const source = new Int32Array(set.modes.length * R);
+  const reads = new Map<number, string>();
+  const slot = (key: string): number => {
+    const s = slotOf(key);
+    reads.set(s, key);
+    return s;
+  };
+  set.modes.forEach((mode, i) => {
+    const b = mode.basis;
+    for (let r = 0; r < R; r++) {
+      source[i * R + r] = b.kind === 'probability' ? slot(b.key) : b.kind === 'by-range' ? slot(b.keys[r]!) : -1 - outcomeOf(b.outcome);
+    }
+  });
+  return { modes: set.modes.length, ranges: R, source, reads: [...reads].map(([s, key]) => ({ slot: s, key })) };
+}
+
+/** Working arrays of one plan's evaluation, made once and reused (layouts [mode·R + range], [range], [mode]). */
+export class ModeWork {
+  readonly conditional: Float64Array;
+  readonly adjusted: Float64Array;
+  /** Per range: sum, lower, upper at 3·r. */
+  readonly byRange: Float64Array;
+  readonly annual: Float64Array;
+  readonly adjustedAnnual: Float64Array;
+  /** sum, lower, upper. */
+  readonly total = new Float64Array(3);
+  readonly dist: Float64Array;
+
+  constructor(plan: ModePlan) {
+    const n = plan.modes;
+    const R = plan.ranges;
+    this.conditional = new Float64Array(n * R);
+    this.adjusted = new Float64Array(n * R);
+    this.byRange = new Float64Array(3 * R);
+    this.annual = new Float64Array(n);
+    this.adjustedAnnual = new Float64Array(n);
+    this.dist = new Float64Array(Math.max(1, n));
+  }
+}
+
+/**
+ * The combination of one set of modes (the formulas above, in a fixed order) into `w`: the load
+ * ranges' probabilities `rangeP[r]`, each tree outcome's annual probability per range
+ * `outcomeByRange[o·R + r]`, and the values of the modes' own numbers at `values[offset + slot]`.
+ * The base case (`modeNumbers`) and every Monte Carlo trial compute through this.
+ */
+export function combineModesInto(plan: ModePlan, rangeP: ArrayLike<number>, outcomeByRange: ArrayLike<number>, values: ArrayLike<number>, offset: number, w: ModeWork): void {
+  const R = plan.ranges;
+  const n = plan.modes;
+  const source = plan.source;
+  const conditional = w.conditional;
+  for (let i = 0; i < n; i++) {
+    for (let r = 0; r < R; r++) {
+      const src = source[i * R + r]!;
+      // P(outcome | range): the outcome's annual probability in the range over the range's.
+      conditional[i * R + r] = src >= 0 ? values[offset + src]! : rangeP[r]! > 0 ? outcomeByRange[(-1 - src) * R + r]! / rangeP[r]! : 0;
+    }
+  }
+  for (let r = 0; r < R; r++) {
+    unionBounds(conditional, r, R, n, w.byRange, 3 * r);
+    shareOfUnion(conditional, r, R, n, w.dist, w.adjusted, r, R);
+  }
+  for (let i = 0; i < n; i++) {
+    w.annual[i] = annualOf(rangeP, conditional, i * R, 1, R);
+    w.adjustedAnnual[i] = annualOf(rangeP, w.adjusted, i * R, 1, R);
+  }
+  for (let k = 0; k < 3; k++) w.total[k] = annualOf(rangeP, w.byRange, k, 3, R);
+}
+
+/** Σ_r P(r)·x_r over xs[at + r·stride], summed in range order. */
+function annualOf(rangeP: ArrayLike<number>, xs: ArrayLike<number>, at: number, stride: number, R: number): number {
+  let s = 0;
+  for (let r = 0; r < R; r++) s += rangeP[r]! * xs[at + r * stride]!;
+  return s;
+}
+
+/**
  * The combination of one set of modes: the load ranges' probabilities `rangeP`, each outcome's
  * annual probability per range (`outcomeByRange(id)`, from the event tree) and the values of the
- * modes' own numbers. The base case and every Monte Carlo trial compute through this.
+ * modes' own numbers (`combineModesInto`, prepared for this one evaluation).
  */
 export function modeNumbers(
   set: FailureModeSet,
@@ -86,50 +206,28 @@ export function modeNumbers(
   outcomeByRange: (outcome: string) => readonly number[],
   value: (key: string) => number,
 ): ModeNumbers {
-  // Plain loops (this runs in every Monte Carlo trial); the arithmetic is the formulas above, in a fixed order.
   const R = rangeP.length;
-  const n = set.modes.length;
-  const conditional: number[][] = [];
-  for (const mode of set.modes) {
-    const b = mode.basis;
-    const c = new Array<number>(R);
-    if (b.kind === 'probability') for (let r = 0; r < R; r++) c[r] = value(b.key);
-    else if (b.kind === 'by-range') for (let r = 0; r < R; r++) c[r] = value(b.keys[r]!);
-    else {
-      // P(outcome | range): the outcome's annual probability in the range over the range's.
-      const o = outcomeByRange(b.outcome);
-      for (let r = 0; r < R; r++) c[r] = rangeP[r]! > 0 ? o[r]! / rangeP[r]! : 0;
-    }
-    conditional.push(c);
-  }
-  const byRange: { sum: number; lower: number; upper: number }[] = [];
-  const adjusted: number[][] = conditional.map(() => new Array<number>(R));
-  const perRange = new Array<number>(n);
-  for (let r = 0; r < R; r++) {
-    for (let i = 0; i < n; i++) perRange[i] = conditional[i]![r]!;
-    byRange.push(uniModalBounds(perRange));
-    const a = commonCauseAdjustment(perRange);
-    for (let i = 0; i < n; i++) adjusted[i]![r] = a[i]!;
-  }
-  const annualOf = (xs: readonly number[]): number => {
-    let s = 0;
-    for (let r = 0; r < R; r++) s += rangeP[r]! * xs[r]!;
-    return s;
+  const keys: string[] = [];
+  const outcomes: string[] = [];
+  const indexIn = (list: string[], id: string): number => {
+    const k = list.indexOf(id);
+    return k >= 0 ? k : list.push(id) - 1;
   };
-  const sums = new Array<number>(R);
-  const lowers = new Array<number>(R);
-  const uppers = new Array<number>(R);
-  for (let r = 0; r < R; r++) {
-    sums[r] = byRange[r]!.sum;
-    lowers[r] = byRange[r]!.lower;
-    uppers[r] = byRange[r]!.upper;
-  }
+  const plan = modePlan(set, R, (key) => indexIn(keys, key), (id) => indexIn(outcomes, id));
+  const values = Float64Array.from(keys, value);
+  const table = new Float64Array(outcomes.length * R);
+  outcomes.forEach((id, o) => table.set(outcomeByRange(id).slice(0, R), o * R));
+  const w = new ModeWork(plan);
+  combineModesInto(plan, rangeP, table, values, 0, w);
+  const n = plan.modes;
+  const rows = (xs: Float64Array) => Array.from({ length: n }, (_, i) => Array.from(xs.subarray(i * R, (i + 1) * R)));
+  const bounds = (at: number) => ({ sum: w.byRange[at]!, lower: w.byRange[at + 1]!, upper: w.byRange[at + 2]! });
   return {
-    conditional,
-    adjusted,
-    annual: conditional.map(annualOf),
-    adjustedAnnual: adjusted.map(annualOf),
-    byRange,
-    total: { sum: annualOf(sums), lower: annualOf(lowers), upper: annualOf(uppers) },
+    conditional: rows(w.conditional),
+    adjusted: rows(w.adjusted),
+    annual: Array.from(w.annual),
+    adjustedAnnual: Array.from(w.adjustedAnnual),
+    byRange: Array.from({ length: R }, (_, r) => bounds(3 * r)),
+    total: { sum: w.total[0]!, lower: w.total[1]!, upper: w.total[2]! },
   };
 }

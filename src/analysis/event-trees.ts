@@ -24,14 +24,10 @@ type Value = (key: string) => number;
 /** A heading's failure branch in one range: a diagram node (logic) or a plain probability. */
 type Branch = { node: number } | { q: number };
 
-export function rangeProbabilities(tree: EventTree, value: Value): number[] {
-  return tree.load.ranges.map((r) => (r.basis === 'aep' ? value(r.aep![0]) - value(r.aep![1]) : value(r.frequency!)));
-}
-
 /**
  * How to compute a tree's sequences and outcomes from the probabilities of its logic (one diagram
  * root per sequence and range) and the values of its numbers: the recipe holds no probability, so
- * the base case and every Monte Carlo trial compute with the same code (`treeNumbers`).
+ * the base case and every Monte Carlo trial compute with the same code (`treeNumbersInto`).
  */
 export interface TreeRecipe {
   tree: EventTree;
@@ -40,6 +36,26 @@ export interface TreeRecipe {
   /** Outcome index of each sequence, and of each outcome id. */
   outcomeOf: number[];
   outcomeIndex: Map<string, number>;
+  /** The same, as arrays of indices (slots = indices of study.parameters). */
+  plan: TreePlan;
+}
+
+/** A tree's computation as indices only, for evaluating it many times without lookups or allocation. */
+export interface TreePlan {
+  ranges: number;
+  sequences: number;
+  outcomes: number;
+  /** Per range r: the slots of its AEP pair at 2r, 2r + 1 (upper, lower), or of its frequency and −1. */
+  rangeSlots: Int32Array;
+  /** Per cell (i·R + r): its logic root, and the span [factorStart[cell], factorStart[cell + 1]) of its factors. */
+  cellRoot: Int32Array;
+  factorStart: Int32Array;
+  factorSlot: Int32Array;
+  /** 1 when the factor is the heading's failure (q), 0 when it works (1 − q). */
+  factorFails: Uint8Array;
+  outcomeOf: Int32Array;
+  /** The values it reads: slot and parameter key. */
+  reads: { slot: number; key: string }[];
 }
 
 /** The numbers of one tree at one set of values. */
@@ -52,6 +68,26 @@ export interface TreeNumbers {
   /** [outcome][range] and annual. */
   outcomeByRange: number[][];
   outcomeProbability: number[];
+}
+
+/** Working arrays of one tree's evaluation, made once and reused (layouts [sequence·R + range], [outcome·R + range]). */
+export class TreeWork {
+  readonly rangeP: Float64Array;
+  readonly conditional: Float64Array;
+  readonly byRange: Float64Array;
+  readonly probability: Float64Array;
+  readonly outcomeByRange: Float64Array;
+  readonly outcomeProbability: Float64Array;
+
+  constructor(plan: TreePlan) {
+    const R = plan.ranges;
+    this.rangeP = new Float64Array(R);
+    this.conditional = new Float64Array(plan.sequences * R);
+    this.byRange = new Float64Array(plan.sequences * R);
+    this.probability = new Float64Array(plan.sequences);
+    this.outcomeByRange = new Float64Array(plan.outcomes * R);
+    this.outcomeProbability = new Float64Array(plan.outcomes);
+  }
 }
 
 /**
@@ -85,47 +121,128 @@ export function treeRecipe(study: Study, model: LogicModel, compiled: CompiledLo
     }
   }
   const outcomeIndex = new Map(tree.outcomes.map((o, i) => [o.id, i]));
-  return { tree, cells, outcomeOf: tree.sequences.map((s) => outcomeIndex.get(s.outcome)!), outcomeIndex };
+  const outcomeOf = tree.sequences.map((s) => outcomeIndex.get(s.outcome)!);
+  const parameterIndex = new Map(study.parameters.map((p, i) => [p.key, i]));
+  const plan = treePlan(tree, cells, outcomeOf, (key) => parameterIndex.get(key)!);
+  return { tree, cells, outcomeOf, outcomeIndex, plan };
 }
 
-/** A tree's numbers from its logic roots' probabilities (`logicP[root]`) and its numbers' values. */
-export function treeNumbers(recipe: TreeRecipe, logicP: ArrayLike<number>, value: Value): TreeNumbers {
-  const { tree, cells } = recipe;
+function treePlan(tree: EventTree, cells: TreeRecipe['cells'], outcomeOf: number[], slotOf: (key: string) => number): TreePlan {
+  const reads = new Map<number, string>();
+  const slot = (key: string): number => {
+    const s = slotOf(key);
+    reads.set(s, key);
+    return s;
+  };
   const R = tree.load.ranges.length;
-  const rangeP = rangeProbabilities(tree, value);
-  const conditional: number[][] = [];
-  const byRange: number[][] = [];
-  const probability: number[] = [];
-  for (let i = 0; i < tree.sequences.length; i++) {
-    const c = new Array<number>(R);
-    const a = new Array<number>(R);
-    for (let r = 0; r < R; r++) {
-      const cell = cells[i * R + r]!;
-      let factor = 1;
-      for (const f of cell.factors) {
-        const q = value(f.key);
-        factor *= f.fails ? q : 1 - q;
-      }
-      c[r] = factor * logicP[cell.root]!;
-      a[r] = rangeP[r]! * c[r]!;
+  const rangeSlots = new Int32Array(2 * R);
+  tree.load.ranges.forEach((r, k) => {
+    rangeSlots[2 * k] = slot(r.basis === 'aep' ? r.aep![0] : r.frequency!);
+    rangeSlots[2 * k + 1] = r.basis === 'aep' ? slot(r.aep![1]) : -1;
+  });
+  const factorStart = new Int32Array(cells.length + 1);
+  const factorSlot: number[] = [];
+  const factorFails: number[] = [];
+  cells.forEach((cell, k) => {
+    factorStart[k] = factorSlot.length;
+    for (const f of cell.factors) {
+      factorSlot.push(slot(f.key));
+      factorFails.push(f.fails ? 1 : 0);
     }
-    conditional.push(c);
-    byRange.push(a);
-    probability.push(sum(a));
+  });
+  factorStart[cells.length] = factorSlot.length;
+  return {
+    ranges: R,
+    sequences: tree.sequences.length,
+    outcomes: tree.outcomes.length,
+    rangeSlots,
+    cellRoot: Int32Array.from(cells, (c) => c.root),
+    factorStart,
+    factorSlot: Int32Array.from(factorSlot),
+    factorFails: Uint8Array.from(factorFails),
+    outcomeOf: Int32Array.from(outcomeOf),
+    reads: [...reads].map(([s, key]) => ({ slot: s, key })),
+  };
+}
+
+/**
+ * A tree's numbers into `w`, from its logic roots' probabilities `logicP[logicOffset + root·logicStride]`
+ * and its numbers' values `values[valueOffset + slot]`: P(range) from the AEP pair or the
+ * frequency; per sequence and range Π(factors) × P(logic), times P(range); sums in a fixed order.
+ * The base case (`treeNumbers`) and every Monte Carlo trial compute through this.
+ */
+export function treeNumbersInto(
+  plan: TreePlan,
+  logicP: ArrayLike<number>,
+  logicOffset: number,
+  logicStride: number,
+  values: ArrayLike<number>,
+  valueOffset: number,
+  w: TreeWork,
+): void {
+  const R = plan.ranges;
+  const S = plan.sequences;
+  const { rangeSlots, cellRoot, factorStart, factorSlot, factorFails, outcomeOf } = plan;
+  const { rangeP, conditional, byRange, probability, outcomeByRange, outcomeProbability } = w;
+  for (let r = 0; r < R; r++) {
+    const upper = values[valueOffset + rangeSlots[2 * r]!]!;
+    const lowerSlot = rangeSlots[2 * r + 1]!;
+    rangeP[r] = lowerSlot < 0 ? upper : upper - values[valueOffset + lowerSlot]!;
   }
-  const outcomeByRange: number[][] = [];
-  const outcomeProbability: number[] = [];
-  tree.outcomes.forEach((_, o) => {
-    const a = new Array<number>(R).fill(0);
+  for (let i = 0; i < S; i++) {
+    let total = 0;
+    for (let r = 0; r < R; r++) {
+      const cell = i * R + r;
+      let factor = 1;
+      for (let f = factorStart[cell]!; f < factorStart[cell + 1]!; f++) {
+        const q = values[valueOffset + factorSlot[f]!]!;
+        factor *= factorFails[f] ? q : 1 - q;
+      }
+      const c = factor * logicP[logicOffset + cellRoot[cell]! * logicStride]!;
+      conditional[cell] = c;
+      const a = rangeP[r]! * c;
+      byRange[cell] = a;
+      total += a;
+    }
+    probability[i] = total;
+  }
+  for (let o = 0; o < plan.outcomes; o++) {
+    let total = 0;
     for (let r = 0; r < R; r++) {
       let s = 0;
-      for (let i = 0; i < byRange.length; i++) if (recipe.outcomeOf[i] === o) s += byRange[i]![r]!;
-      a[r] = s;
+      for (let i = 0; i < S; i++) if (outcomeOf[i] === o) s += byRange[i * R + r]!;
+      outcomeByRange[o * R + r] = s;
+      total += s;
     }
-    outcomeByRange.push(a);
-    outcomeProbability.push(sum(a));
-  });
-  return { rangeP, conditional, byRange, probability, outcomeByRange, outcomeProbability };
+    outcomeProbability[o] = total;
+  }
+}
+
+/** A tree's numbers from its logic roots' probabilities (`logicP[root]`) and its numbers' values (`treeNumbersInto`, once). */
+export function treeNumbers(recipe: TreeRecipe, logicP: ArrayLike<number>, value: Value): TreeNumbers {
+  const plan = recipe.plan;
+  const values = planValues(plan.reads, value);
+  const w = new TreeWork(plan);
+  treeNumbersInto(plan, logicP, 0, 1, values, 0, w);
+  const R = plan.ranges;
+  const rows = (xs: Float64Array, n: number) => Array.from({ length: n }, (_, i) => Array.from(xs.subarray(i * R, (i + 1) * R)));
+  return {
+    rangeP: Array.from(w.rangeP),
+    conditional: rows(w.conditional, plan.sequences),
+    byRange: rows(w.byRange, plan.sequences),
+    probability: Array.from(w.probability),
+    outcomeByRange: rows(w.outcomeByRange, plan.outcomes),
+    outcomeProbability: Array.from(w.outcomeProbability),
+  };
+}
+
+/** A values array for a plan's reads: values[slot] = value(key). */
+export function planValues(reads: readonly { slot: number; key: string }[], value: Value): Float64Array {
+  let size = 0;
+  for (const r of reads) size = Math.max(size, r.slot + 1);
+  const values = new Float64Array(size);
+  for (const r of reads) values[r.slot] = value(r.key);
+  return values;
 }
 
 export function quantifyTree(study: Study, model: LogicModel, compiled: CompiledLogic, p: Float64Array, value: Value, tree: EventTree): EventTreeResult {

@@ -4,13 +4,13 @@
  * the probabilities of a fixed list of diagram roots and the parameters' values; it holds no
  * probability and no reference to the decision-diagram manager (plain data, so a worker thread can
  * take a copy). The shared-causes stage computes its sections at the base case through the same
- * functions (`treeNumbers`, `modeNumbers`, `tails`), so a Monte Carlo trial with every parameter at
+ * functions (`treeNumbersInto`, `combineModesInto`, `tails`), so a Monte Carlo trial with every parameter at
  * its value gives the sections' numbers, bit for bit.
  */
 import type { CompiledLogic } from '../logic/index.js';
 import type { CountSet, FailureModeSet, Study } from '../study/types.js';
-import { modeNumbers } from './combine-modes.js';
-import { treeNumbers, treeRecipe, type TreeNumbers, type TreeRecipe } from './event-trees.js';
+import { combineModesInto, modePlan, ModeWork, type ModePlan } from './combine-modes.js';
+import { treeNumbersInto, treeRecipe, TreeWork, type TreeRecipe } from './event-trees.js';
 import { countRecipe } from './gate-counts.js';
 import type { LogicModel } from './logic-model.js';
 import type { QuantityUncertainty, Results } from './results.js';
@@ -19,7 +19,8 @@ export type QuantityKey = Pick<QuantityUncertainty, 'kind' | 'owner' | 'id'>;
 
 export interface DerivedRecipe {
   trees: TreeRecipe[];
-  modes: { set: FailureModeSet; tree: number }[];
+  /** Each mode set, the index of its tree among `trees`, and its plan (slots = indices of study.parameters). */
+  modes: { set: FailureModeSet; tree: number; plan: ModePlan }[];
   counts: { set: CountSet; exactly: number[] }[];
   /** The quantities in output order: per tree its outcomes then its sequences, per mode set its modes then sum, lower, upper, per count set at-least-1..n. */
   quantities: QuantityKey[];
@@ -31,7 +32,13 @@ export interface DerivedRecipe {
 export function derivedRecipe(study: Study, model: LogicModel, compiled: CompiledLogic): { recipe: DerivedRecipe; roots: number[] } | undefined {
   const roots: number[] = [];
   const trees = (study.eventTrees ?? []).map((t) => treeRecipe(study, model, compiled, t, roots));
-  const modes = (study.failureModes ?? []).map((set) => ({ set, tree: trees.findIndex((r) => r.tree.id === set.tree) }));
+  const parameterIndex = new Map(study.parameters.map((p, i) => [p.key, i]));
+  const modes = (study.failureModes ?? []).map((set) => {
+    const tree = trees.findIndex((r) => r.tree.id === set.tree);
+    const recipe = trees[tree]!;
+    const plan = modePlan(set, recipe.plan.ranges, (key) => parameterIndex.get(key)!, (id) => recipe.outcomeIndex.get(id)!);
+    return { set, tree, plan };
+  });
   const counts = (study.counts ?? []).map((set) => countRecipe(study, model, compiled, set, roots));
   const quantities: QuantityKey[] = [];
   for (const { tree } of trees) {
@@ -47,34 +54,60 @@ export function derivedRecipe(study: Study, model: LogicModel, compiled: Compile
   return { recipe: { trees, modes, counts, quantities, rootCount: roots.length }, roots };
 }
 
-/** Every quantity of the recipe, in its order, into `out`, from the roots' probabilities and the parameters' values. */
-export function derivedValues(recipe: DerivedRecipe, rootP: ArrayLike<number>, value: (key: string) => number, out: Float64Array): void {
-  let k = 0;
-  const numbers: TreeNumbers[] = [];
-  for (const r of recipe.trees) {
-    const n = treeNumbers(r, rootP, value);
-    numbers.push(n);
-    for (const x of n.outcomeProbability) out[k++] = x;
-    for (const x of n.probability) out[k++] = x;
+/**
+ * Every quantity of the recipe, trial by trial, with working arrays made once (one per thread): a
+ * trial reads its roots' probabilities and its parameter values through offsets and strides, so the
+ * Monte Carlo's batch arrays are read in place.
+ */
+export class DerivedEvaluator {
+  private readonly trees: TreeWork[];
+  private readonly modes: ModeWork[];
+
+  constructor(private readonly recipe: DerivedRecipe) {
+    this.trees = recipe.trees.map((t) => new TreeWork(t.plan));
+    this.modes = recipe.modes.map((m) => new ModeWork(m.plan));
   }
-  for (const { set, tree } of recipe.modes) {
-    const t = numbers[tree]!;
-    const outcomes = recipe.trees[tree]!.outcomeIndex;
-    const n = modeNumbers(set, t.rangeP, (id) => t.outcomeByRange[outcomes.get(id)!]!, value);
-    for (const x of n.adjustedAnnual) out[k++] = x;
-    out[k++] = n.total.sum;
-    out[k++] = n.total.lower;
-    out[k++] = n.total.upper;
-  }
-  for (const { exactly } of recipe.counts) {
-    // tails(), on the count's own entries: P(at least j) = Σ_{i ≥ j} P(exactly i), summed from the top.
-    let s = 0;
-    const at = k;
-    for (let j = exactly.length - 1; j >= 1; j--) {
-      s += rootP[exactly[j]!]!;
-      out[at + j - 1] = s;
+
+  /**
+   * One trial's quantities, in the recipe's order, into out[at + q·outStride]: root j's probability
+   * at rootP[rootOffset + j·rootStride], parameter i's value at values[valueOffset + i].
+   */
+  evaluate(
+    rootP: ArrayLike<number>,
+    rootOffset: number,
+    rootStride: number,
+    values: ArrayLike<number>,
+    valueOffset: number,
+    out: Float64Array,
+    at: number,
+    outStride: number,
+  ): void {
+    const recipe = this.recipe;
+    let k = 0;
+    for (let t = 0; t < recipe.trees.length; t++) {
+      const w = this.trees[t]!;
+      treeNumbersInto(recipe.trees[t]!.plan, rootP, rootOffset, rootStride, values, valueOffset, w);
+      for (let o = 0; o < w.outcomeProbability.length; o++) out[at + outStride * k++] = w.outcomeProbability[o]!;
+      for (let i = 0; i < w.probability.length; i++) out[at + outStride * k++] = w.probability[i]!;
     }
-    k += exactly.length - 1;
+    for (let s = 0; s < recipe.modes.length; s++) {
+      const { plan, tree } = recipe.modes[s]!;
+      const t = this.trees[tree]!;
+      const w = this.modes[s]!;
+      combineModesInto(plan, t.rangeP, t.outcomeByRange, values, valueOffset, w);
+      for (let i = 0; i < w.adjustedAnnual.length; i++) out[at + outStride * k++] = w.adjustedAnnual[i]!;
+      for (let j = 0; j < 3; j++) out[at + outStride * k++] = w.total[j]!;
+    }
+    for (let c = 0; c < recipe.counts.length; c++) {
+      const exactly = recipe.counts[c]!.exactly;
+      // tails(), on the count's own entries: P(at least j) = Σ_{i ≥ j} P(exactly i), summed from the top.
+      let s = 0;
+      for (let j = exactly.length - 1; j >= 1; j--) {
+        s += rootP[rootOffset + exactly[j]! * rootStride]!;
+        out[at + outStride * (k + j - 1)] = s;
+      }
+      k += exactly.length - 1;
+    }
   }
 }
 

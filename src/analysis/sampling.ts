@@ -20,15 +20,16 @@
  * should be truncated or be a positive one).
  */
 import { createRng, latinHypercube, type Rng } from '../reliability/random.js';
-import { dirichletFromUniforms, quantileFunction } from '../reliability/distributions.js';
+import { DirichletSampler, quantileFunction } from '../reliability/distributions.js';
 import { normalQuantile } from '../reliability/special.js';
 import { StudyError } from '../study/errors.js';
 import type { Parameter, Study } from '../study/types.js';
 
+/** One parameter's draw (`probability`: a value above 1 is set to 1 and counted). */
 type Draw =
-  | { kind: 'quantile'; param: number; dim: number; quantile: (unitUniform: number) => number }
-  | { kind: 'log-normal-pair'; param: number; dims: [number, number]; weights: [number, number]; logCentre: number }
-  | { kind: 'dirichlet'; group: string; params: number[]; dims: number[]; a: number[]; gammas: Float64Array };
+  | { kind: 'quantile'; param: number; probability: boolean; dim: number; quantile: (unitUniform: number) => number }
+  | { kind: 'log-normal-pair'; param: number; probability: boolean; dims: [number, number]; weights: [number, number]; logCentre: number }
+  | { kind: 'dirichlet'; group: string; params: Int32Array; dims: Int32Array; sampler: DirichletSampler; gammas: Float64Array };
 
 export interface SamplerPlan {
   /** Parameter indices (into study.parameters) that vary between trials. */
@@ -46,6 +47,9 @@ export class ParameterSampler implements SamplerPlan {
   /** Trials in which at least one sampled probability was above 1 and set to 1. */
   clippedTrials = 0;
   private readonly draws: Draw[] = [];
+  /** Dimensions read as standard normals by the fits' pairs (each once per trial, for both of a fit's parameters). */
+  private readonly normalDims: number[] = [];
+  private normals = new Float64Array(0);
   private readonly params: Parameter[];
   private readonly groupAt: (id: string) => Parameter['at'];
 
@@ -66,7 +70,7 @@ export class ParameterSampler implements SamplerPlan {
         return;
       }
       if (u.kind !== 'fit') {
-        this.draws.push({ kind: 'quantile', param: i, dim: dims++, quantile: quantileFunction(u) });
+        this.draws.push({ kind: 'quantile', param: i, probability: p.quantity === 'probability', dim: dims++, quantile: quantileFunction(u) });
         this.varying.add(i);
         return;
       }
@@ -90,7 +94,8 @@ export class ParameterSampler implements SamplerPlan {
       const [l00, l10, l11] = pair.chol;
       // ln β = ln β̂ + L₀₀z₁;  ln η = ln η̂ + L₁₀z₁ + L₁₁z₂.
       const weights: [number, number] = u.which === 'shape' ? [l00, 0] : [l10, l11];
-      this.draws.push({ kind: 'log-normal-pair', param: i, dims: pair.dims, weights, logCentre: Math.log(p.value) });
+      this.draws.push({ kind: 'log-normal-pair', param: i, probability: p.quantity === 'probability', dims: pair.dims, weights, logCentre: Math.log(p.value) });
+      for (const dim of pair.dims) if (!this.normalDims.includes(dim)) this.normalDims.push(dim);
       this.varying.add(i);
     });
     // An alpha-factor group's Dirichlet: one dimension per factor (dirichlet.ts).
@@ -100,11 +105,19 @@ export class ParameterSampler implements SamplerPlan {
       const params = Object.keys(g.fields)
         .sort((x, y) => Number(x.slice('alpha'.length)) - Number(y.slice('alpha'.length)))
         .map((f) => index.get(g.fields[f]!)!);
-      const draw: Draw = { kind: 'dirichlet', group: g.id, params, dims: params.map(() => dims++), a: g.dirichlet.a, gammas: new Float64Array(params.length) };
+      const draw: Draw = {
+        kind: 'dirichlet',
+        group: g.id,
+        params: Int32Array.from(params),
+        dims: Int32Array.from(params, () => dims++),
+        sampler: new DirichletSampler(g.dirichlet.a),
+        gammas: new Float64Array(params.length),
+      };
       this.draws.push(draw);
       for (const i of params) this.varying.add(i);
     }
     this.dimensions = dims;
+    this.normals = new Float64Array(dims);
   }
 
   /**
@@ -113,31 +126,37 @@ export class ParameterSampler implements SamplerPlan {
    */
   apply(uniforms: ArrayLike<number>, values: Float64Array, trial: number): void {
     let clipped = false;
-    for (const d of this.draws) {
+    // A fit's two normals serve both its shape and its scale: computed once.
+    const normals = this.normals;
+    for (let k = 0; k < this.normalDims.length; k++) {
+      const dim = this.normalDims[k]!;
+      normals[dim] = normalQuantile(uniforms[dim]!);
+    }
+    const draws = this.draws;
+    for (let k = 0; k < draws.length; k++) {
+      const d = draws[k]!;
       let v: number;
       if (d.kind === 'dirichlet') {
-        if (!dirichletFromUniforms(d.a, d.dims.map((k) => uniforms[k]!), d.gammas)) {
+        if (!d.sampler.draw(uniforms, d.gammas, d.dims)) {
           throw new StudyError(`the alpha factors of common-cause group '${d.group}' could not be sampled in Monte Carlo trial ${trial + 1}: every gamma variate was 0`, this.groupAt(d.group), 'larger Dirichlet parameters (a concentration of at least a few per factor)');
         }
-        d.params.forEach((param, k) => (values[param] = d.gammas[k]!));
+        for (let j = 0; j < d.params.length; j++) values[d.params[j]!] = d.gammas[j]!;
         continue;
       }
       if (d.kind === 'quantile') {
         v = d.quantile(uniforms[d.dim]!);
       } else {
-        const z1 = normalQuantile(uniforms[d.dims[0]]!);
-        const z2 = normalQuantile(uniforms[d.dims[1]]!);
-        v = Math.exp(d.logCentre + d.weights[0] * z1 + d.weights[1] * z2);
+        v = Math.exp(d.logCentre + d.weights[0] * normals[d.dims[0]]! + d.weights[1] * normals[d.dims[1]]!);
       }
-      const p = this.params[d.param]!;
       if (!(v >= 0)) {
+        const p = this.params[d.param]!;
         throw new StudyError(
           `the uncertainty of '${p.key}' gave ${v} in Monte Carlo trial ${trial + 1}, outside the values it can take`,
           p.at,
           'a distribution that stays positive (lognormal, gamma, beta) or a normal with min: 0',
         );
       }
-      if (p.quantity === 'probability' && v > 1) {
+      if (d.probability && v > 1) {
         v = 1;
         clipped = true;
       }

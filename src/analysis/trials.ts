@@ -13,7 +13,7 @@ import type { Study } from '../study/types.js';
 import { baseCase } from './case.js';
 import { commonCauseOf } from './common-cause.js';
 import { EventPlan, parametersSampled } from './event-plan.js';
-import { derivedValues, type DerivedRecipe } from './outcome-quantities.js';
+import { DerivedEvaluator, type DerivedRecipe } from './outcome-quantities.js';
 import { ParameterSampler, uniformRows } from './sampling.js';
 
 /** Trials evaluated together in one diagram pass. */
@@ -70,6 +70,10 @@ export class TrialRunner {
   private readonly plan: EventPlan;
   private readonly rows: ReturnType<typeof uniformRows>;
   private readonly evaluator: BatchEvaluator;
+  private readonly derived: DerivedEvaluator | undefined;
+  /** Parameter values, trial-major: lane b's vector at [b·P, (b + 1)·P), one view per lane. */
+  private readonly parametersBatch: Float64Array;
+  private readonly lanes: Float64Array[];
 
   constructor(
     private readonly job: TrialJob,
@@ -81,6 +85,16 @@ export class TrialRunner {
     this.plan = new EventPlan(study, baseCase(), this.sampler.varying);
     this.rows = uniformRows(study.settings.seed, study.settings.sampling, job.samples, this.sampler.dimensions);
     this.evaluator = new BatchEvaluator(job.diagram, batch);
+    this.derived = job.recipe ? new DerivedEvaluator(job.recipe) : undefined;
+    const P = study.parameters.length;
+    // Every lane starts at the study's values; a trial overwrites only the sampled ones.
+    this.parametersBatch = new Float64Array(P * batch);
+    this.lanes = [];
+    for (let b = 0; b < batch; b++) {
+      const lane = this.parametersBatch.subarray(b * P, (b + 1) * P);
+      study.parameters.forEach((p, i) => (lane[i] = p.value));
+      this.lanes.push(lane);
+    }
   }
 
   /**
@@ -88,26 +102,21 @@ export class TrialRunner {
    * TrialError naming it; the trials before it in the block are written.
    */
   run(from: number, to: number, sink: TrialSink, onBatch?: (count: number) => void): void {
-    const { study, diagram, topCount, recipe, samples } = this.job;
-    const { B, sampler, plan, rows, evaluator } = this;
+    const { study, diagram, topCount, samples } = this.job;
+    const { B, sampler, plan, rows, evaluator, derived, parametersBatch, lanes } = this;
     const expansion = commonCauseOf(study);
     const P = study.parameters.length;
     const V = expansion.variableCount;
     const uniforms = new Float64Array(sampler.dimensions);
-    const parameterValues = Float64Array.from(study.parameters, (p) => p.value);
     const eventProbability = new Float64Array(study.events.length);
     const variableProbability = new Float64Array(V);
     const parameterIndex = new Map(study.parameters.map((p, i) => [p.key, i]));
-    const valueOf = (key: string): number => parameterValues[parameterIndex.get(key)!]!;
+    let lane = lanes[0]!;
+    // The common-cause expansion reads its parameters (beta, …) by key, from the trial's lane.
+    const valueOf = (key: string): number => lane[parameterIndex.get(key)!]!;
     const pBatch = new Float64Array(V * B);
     const rootsBatch = new Float64Array(diagram.roots.length * B);
-    // The derived quantities of trial b read that trial's parameter values after the batch's pass.
-    const Q = recipe?.quantities.length ?? 0;
-    const parametersBatch = recipe ? new Float64Array(P * B) : new Float64Array(0);
-    let offset = 0;
-    const batchValueOf = (key: string): number => parametersBatch[offset + parameterIndex.get(key)!]!;
-    const rootP = new Float64Array(recipe?.rootCount ?? 0);
-    const quantities = new Float64Array(Q);
+    const derivedOut = sink.derived;
 
     let t = from;
     try {
@@ -115,24 +124,22 @@ export class TrialRunner {
         const count = Math.min(B, to - t0);
         for (let b = 0; b < count; b++) {
           t = t0 + b;
+          lane = lanes[b]!;
           rows.row(t, uniforms);
           const before = sampler.clippedTrials;
-          sampler.apply(uniforms, parameterValues, t);
+          sampler.apply(uniforms, lane, t);
           if (sampler.clippedTrials !== before) sink.clipped[t] = 1;
-          plan.evaluate(parameterValues, eventProbability);
+          plan.evaluate(lane, eventProbability);
           expansion.apply(eventProbability, valueOf, variableProbability);
           for (let v = 0; v < V; v++) pBatch[v * B + b] = variableProbability[v]!;
-          if (recipe) parametersBatch.set(parameterValues, b * P);
         }
         evaluator.evaluate(pBatch, count, rootsBatch);
         for (let k = 0; k < topCount; k++) sink.tops.set(rootsBatch.subarray(k * B, k * B + count), k * samples + t0);
-        if (recipe) {
+        if (derived) {
+          // Trial b's quantities from its roots (after the tops, stride B) and its own parameter values.
           for (let b = 0; b < count; b++) {
             t = t0 + b;
-            for (let j = 0; j < rootP.length; j++) rootP[j] = rootsBatch[(topCount + j) * B + b]!;
-            offset = b * P;
-            derivedValues(recipe, rootP, batchValueOf, quantities);
-            for (let q = 0; q < Q; q++) sink.derived[q * samples + t] = quantities[q]!;
+            derived.evaluate(rootsBatch, topCount * B + b, B, parametersBatch, b * P, derivedOut, t, samples);
           }
         }
         onBatch?.(count);

@@ -6,7 +6,7 @@
  * `kind: 'fit'` is not handled here: the analysis samples it jointly from the fit's covariance.
  */
 import type { Uncertainty } from '../study/types.js';
-import { betaQuantile, gammaQuantile, normalCdf, normalPdf, normalQuantile } from './special.js';
+import { BetaInverse, GammaInverse, normalCdf, normalPdf, normalQuantile } from './special.js';
 
 /**
  * The z of the 95th percentile behind the error factor, EF = P95/P50 = e^(1.645σ) (NUREG/CR-6823,
@@ -44,18 +44,6 @@ function truncation(mean: number, sd: number, min?: number, max?: number): [numb
   return [a, b];
 }
 
-/**
- * Quantile of a normal truncated to [a, b] (standardized): Φ⁻¹(Φ(a) + u(Φ(b) − Φ(a))). When the
- * whole window lies above the mean it is mirrored to the lower tail, where Φ keeps its digits.
- */
-function truncatedNormalQuantile(u: number, a: number, b: number): number {
-  if (a > 0) return -truncatedNormalQuantile(1 - u, -b, -a);
-  const lo = normalCdf(a);
-  const hi = normalCdf(b);
-  const z = normalQuantile(lo + u * (hi - lo));
-  return Math.min(b, Math.max(a, z));
-}
-
 function assertSampled(u: Uncertainty): asserts u is SampledUncertainty {
   if (u.kind === 'fit') {
     throw new Error(`a '${u.fit}' fit parameter is sampled by the analysis from the fit's covariance, not by sampleQuantile`);
@@ -66,61 +54,85 @@ function assertSampled(u: Uncertainty): asserts u is SampledUncertainty {
  * The value at cumulative probability `unitUniform` ∈ (0, 1) (0 and 1 give the support's ends).
  * Invalid distribution parameters give NaN; the study reader checks them first.
  * - lognormal: m·exp(σ·Φ⁻¹(u)), σ = ln(EF)/1.645
- * - normal: mean + sd·z, truncated to [min, max] when given (inverse CDF of the truncated law)
+ * - normal: mean + sd·z, truncated to [min, max] when given (inverse CDF of the truncated law,
+ *   Φ⁻¹(Φ(a) + u(Φ(b) − Φ(a))) on the standardized bounds a, b; a window wholly above the mean is
+ *   mirrored to the lower tail, where Φ keeps its digits)
  * - uniform: min + u(max − min)
  * - triangular: a + √(u(b − a)(c − a)) below the mode's probability (c − a)/(b − a),
  *   b − √((1 − u)(b − a)(b − c)) above (standard inverse CDF)
  * - beta, gamma (shape, scale): the incomplete-function inverses of special.ts
+ * One-off values; a sampler that draws many from one distribution prepares it with `quantileFunction`.
  */
 export function sampleQuantile(u: Uncertainty, unitUniform: number): number {
-  assertSampled(u);
-  const p = unitUniform;
-  if (!(p >= 0 && p <= 1)) return NaN;
-  switch (u.kind) {
-    case 'lognormal': {
-      if (!(u.median > 0)) return NaN;
-      const sigma = lognormalSigma(u.ef);
-      if (sigma === 0) return u.median;
-      return u.median * Math.exp(sigma * normalQuantile(p));
-    }
-    case 'normal': {
-      if (!(u.sd >= 0) || (u.min !== undefined && u.max !== undefined && !(u.min <= u.max))) return NaN;
-      if (u.sd === 0) return Math.min(u.max ?? Infinity, Math.max(u.min ?? -Infinity, u.mean));
-      const [a, b] = truncation(u.mean, u.sd, u.min, u.max);
-      if (a === -Infinity && b === Infinity) return u.mean + u.sd * normalQuantile(p);
-      return u.mean + u.sd * truncatedNormalQuantile(p, a, b);
-    }
-    case 'uniform':
-      if (!(u.min <= u.max)) return NaN;
-      return u.min + p * (u.max - u.min);
-    case 'triangular': {
-      const { min: a, mode: c, max: b } = u;
-      if (!(a <= c && c <= b)) return NaN;
-      if (a === b) return a;
-      const fc = (c - a) / (b - a);
-      return p < fc ? a + Math.sqrt(p * (b - a) * (c - a)) : b - Math.sqrt((1 - p) * (b - a) * (b - c));
-    }
-    case 'beta':
-      return betaQuantile(p, u.a, u.b);
-    case 'gamma':
-      return gammaQuantile(p, u.shape, u.scale);
-  }
+  return quantileFunction(u)(unitUniform);
 }
 
 /**
- * `sampleQuantile` for one distribution, prepared once for many draws (the Monte Carlo): the
- * lognormal's σ is computed once; every value is the one sampleQuantile gives, bit for bit.
+ * `sampleQuantile` for one distribution, prepared once for many draws (the Monte Carlo): whatever
+ * does not depend on the uniform (σ, the truncation's Φ at both bounds, the gamma's and beta's
+ * constants) is computed here, once. sampleQuantile itself goes through it, so the two are one
+ * computation.
  */
 export function quantileFunction(u: Uncertainty): (unitUniform: number) => number {
   assertSampled(u);
-  if (u.kind === 'lognormal' && u.median > 0) {
-    const sigma = lognormalSigma(u.ef);
-    if (sigma > 0) {
+  const nan = () => NaN;
+  switch (u.kind) {
+    case 'lognormal': {
+      if (!(u.median > 0)) return nan;
+      const sigma = lognormalSigma(u.ef);
       const median = u.median;
+      if (Number.isNaN(sigma)) return nan;
+      if (sigma === 0) return (p) => (p >= 0 && p <= 1 ? median : NaN);
       return (p) => (p >= 0 && p <= 1 ? median * Math.exp(sigma * normalQuantile(p)) : NaN);
     }
+    case 'normal': {
+      const { mean, sd, min, max } = u;
+      if (!(sd >= 0) || (min !== undefined && max !== undefined && !(min <= max))) return nan;
+      if (sd === 0) {
+        const v = Math.min(max ?? Infinity, Math.max(min ?? -Infinity, mean));
+        return (p) => (p >= 0 && p <= 1 ? v : NaN);
+      }
+      const [a, b] = truncation(mean, sd, min, max);
+      if (a === -Infinity && b === Infinity) return (p) => (p >= 0 && p <= 1 ? mean + sd * normalQuantile(p) : NaN);
+      // Φ at the bounds once; a window wholly above the mean is taken mirrored (z → −z, u → 1 − u).
+      const mirrored = a > 0;
+      const lo = mirrored ? -b : a;
+      const hi = mirrored ? -a : b;
+      const cdfLo = normalCdf(lo);
+      const cdfHi = normalCdf(hi);
+      return (p) => {
+        if (!(p >= 0 && p <= 1)) return NaN;
+        const w = mirrored ? 1 - p : p;
+        const z = Math.min(hi, Math.max(lo, normalQuantile(cdfLo + w * (cdfHi - cdfLo))));
+        return mean + sd * (mirrored ? -z : z);
+      };
+    }
+    case 'uniform': {
+      const { min, max } = u;
+      if (!(min <= max)) return nan;
+      return (p) => (p >= 0 && p <= 1 ? min + p * (max - min) : NaN);
+    }
+    case 'triangular': {
+      const { min: a, mode: c, max: b } = u;
+      if (!(a <= c && c <= b)) return nan;
+      if (a === b) return (p) => (p >= 0 && p <= 1 ? a : NaN);
+      const fc = (c - a) / (b - a);
+      return (p) => {
+        if (!(p >= 0 && p <= 1)) return NaN;
+        return p < fc ? a + Math.sqrt(p * (b - a) * (c - a)) : b - Math.sqrt((1 - p) * (b - a) * (b - c));
+      };
+    }
+    case 'beta': {
+      const inverse = new BetaInverse(u.a, u.b);
+      return (p) => inverse.quantile(p);
+    }
+    case 'gamma': {
+      const { shape, scale } = u;
+      if (!(shape > 0) || !(scale > 0)) return nan;
+      const inverse = new GammaInverse(shape);
+      return (p) => inverse.quantile(p) * scale;
+    }
   }
-  return (p) => sampleQuantile(u, p);
 }
 
 export interface UncertaintySummary {
@@ -169,20 +181,38 @@ export function describe(u: Uncertainty): UncertaintySummary {
 }
 
 /**
- * One draw of a Dirichlet distribution with parameters a_1…a_M from M unit uniforms: independent
+ * Draws of a Dirichlet distribution with parameters a_1…a_M from M unit uniforms: independent
  * gamma variates X_k ~ Gamma(a_k, 1), each by its inverse CDF (so Latin hypercube strata carry
  * over), normalised, α_k = X_k / ΣX (the standard construction; e.g. L. Devroye, Non-Uniform
  * Random Variate Generation, 1986, ch. XI, from memory). Each marginal is Beta(a_k, Σa − a_k) and the
- * α_k add up to 1 (to rounding). Writes into `out`; false when every X_k underflowed to 0.
+ * α_k add up to 1 (to rounding). Prepared once per distribution (the gamma inverses), for many draws.
  */
-export function dirichletFromUniforms(a: readonly number[], uniforms: readonly number[], out: Float64Array): boolean {
-  let total = 0;
-  for (let k = 0; k < a.length; k++) {
-    const x = gammaQuantile(uniforms[k]!, a[k]!, 1);
-    out[k] = x;
-    total += x;
+export class DirichletSampler {
+  private readonly inverses: GammaInverse[];
+
+  constructor(readonly a: readonly number[]) {
+    this.inverses = a.map((ak) => new GammaInverse(ak));
   }
-  if (!(total > 0) || !Number.isFinite(total)) return false;
-  for (let k = 0; k < a.length; k++) out[k] = out[k]! / total;
-  return true;
+
+  /**
+   * One draw into `out` from the uniforms at `uniforms[dims[k]]` (or `uniforms[k]` without dims);
+   * false when every X_k underflowed to 0.
+   */
+  draw(uniforms: ArrayLike<number>, out: Float64Array, dims?: ArrayLike<number>): boolean {
+    const M = this.inverses.length;
+    let total = 0;
+    for (let k = 0; k < M; k++) {
+      const x = this.inverses[k]!.quantile(uniforms[dims ? dims[k]! : k]!);
+      out[k] = x;
+      total += x;
+    }
+    if (!(total > 0) || !Number.isFinite(total)) return false;
+    for (let k = 0; k < M; k++) out[k] = out[k]! / total;
+    return true;
+  }
+}
+
+/** One Dirichlet draw (DirichletSampler, prepared for this draw alone). */
+export function dirichletFromUniforms(a: readonly number[], uniforms: readonly number[], out: Float64Array): boolean {
+  return new DirichletSampler(a).draw(uniforms, out);
 }

@@ -7,8 +7,8 @@
  */
 import type { ModelKind } from '../../study/types.js';
 import { fixedProbability, rateProbability, repairableUnavailability, switchProbability } from './simple.js';
-import { demandProbability, hiddenFailureFraction, testedUnavailability } from './tested.js';
-import { weibullConditionalFailure, weibullEventProbability, weibullHazard } from './weibull.js';
+import { demandProbabilityOf, hiddenFailureFraction, testedUnavailabilityOf } from './tested.js';
+import { weibullConditionalFailure, weibullEventProbabilityOf, weibullHazard } from './weibull.js';
 
 export * from './simple.js';
 export * from './tested.js';
@@ -28,43 +28,41 @@ export function modelProbability(
   values: Readonly<Record<string, number>>,
   context: ModelContext = {},
 ): number {
-  const need = (field: string): number => {
-    const v = values[field];
-    if (v === undefined) throw new Error(`model '${model}' needs '${field}'`);
-    return v;
-  };
+  // Positional calls and no closure: this runs for every event of every Monte Carlo trial.
   switch (model) {
     case 'fixed':
-      return fixedProbability(need('probability'));
+      return fixedProbability(required(model, values, 'probability'));
     case 'rate':
-      return rateProbability(need('rate'), need('exposure'));
+      return rateProbability(required(model, values, 'rate'), required(model, values, 'exposure'));
     case 'repairable':
-      return repairableUnavailability(need('rate'), need('repair'));
+      return repairableUnavailability(required(model, values, 'rate'), required(model, values, 'repair'));
     case 'tested':
-      return testedUnavailability({
-        rate: need('rate'),
-        interval: need('interval'),
-        testDuration: values['test_duration'],
-        repair: values['repair'],
-      });
+      return testedUnavailabilityOf(required(model, values, 'rate'), required(model, values, 'interval'), values['test_duration'], values['repair']);
     case 'demand':
-      return demandProbability({ probability: need('probability'), rate: values['rate'], interval: values['interval'] });
+      return demandProbabilityOf(required(model, values, 'probability'), values['rate'], values['interval']);
     case 'weibull': {
       if (context.ageYears === undefined) throw new Error("model 'weibull' needs the age (context.ageYears)");
-      return weibullEventProbability({
-        shape: need('shape'),
-        scale: need('scale'),
-        location: values['location'],
-        age: context.ageYears,
-        exercise: values['exercise'],
-        repair: values['repair'],
-        basis: context.exerciseBasis,
-      });
+      return weibullEventProbabilityOf(
+        required(model, values, 'shape'),
+        required(model, values, 'scale'),
+        values['location'] ?? 0,
+        context.ageYears,
+        values['exercise'],
+        values['repair'],
+        context.exerciseBasis ?? 'end',
+      );
     }
     case 'switch':
       if (context.on === undefined) throw new Error("model 'switch' needs its state (context.on)");
       return switchProbability(context.on);
   }
+}
+
+/** A model's required field; its absence is a programming error upstream (the reader checks fields). */
+function required(model: ModelKind, values: Readonly<Record<string, number>>, field: string): number {
+  const v = values[field];
+  if (v === undefined) throw new Error(`model '${model}' needs '${field}'`);
+  return v;
 }
 
 /**

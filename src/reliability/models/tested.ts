@@ -49,7 +49,11 @@ export interface TestedInputs {
 
 /** `tested`: time-average unavailability of a periodically tested standby component (derivation above). */
 export function testedUnavailability(inputs: TestedInputs): number {
-  const { rate, interval, testDuration, repair } = inputs;
+  return testedUnavailabilityOf(inputs.rate, inputs.interval, inputs.testDuration, inputs.repair);
+}
+
+/** `testedUnavailability` with its inputs as arguments (the Monte Carlo's path: no object per call). */
+export function testedUnavailabilityOf(rate: number, interval: number, testDuration: number | undefined, repair: number | undefined): number {
   if (!(rate >= 0) || !(interval > 0)) return NaN;
   if (testDuration !== undefined && !(testDuration >= 0)) return NaN;
   if (repair !== undefined && !(repair >= 0)) return NaN;
@@ -76,7 +80,11 @@ export interface DemandInputs {
  * practice, no source). Rate and interval come together or not at all.
  */
 export function demandProbability(inputs: DemandInputs): number {
-  const { probability, rate, interval } = inputs;
+  return demandProbabilityOf(inputs.probability, inputs.rate, inputs.interval);
+}
+
+/** `demandProbability` with its inputs as arguments (no object per call). */
+export function demandProbabilityOf(probability: number, rate: number | undefined, interval: number | undefined): number {
   if (!(probability >= 0 && probability <= 1)) return NaN;
   if (rate === undefined && interval === undefined) return probability;
   if (rate === undefined || interval === undefined || !(rate >= 0) || !(interval > 0)) return NaN;

@@ -136,9 +136,19 @@ export interface WeibullEventInputs {
  *   λ = h(a): λ·MTTR/(1 + λ·MTTR) (the repairable form).
  */
 export function weibullEventProbability(inputs: WeibullEventInputs): number {
-  const { shape, scale, age, exercise, repair } = inputs;
-  const location = inputs.location ?? 0;
-  const basis = inputs.basis ?? 'end';
+  return weibullEventProbabilityOf(inputs.shape, inputs.scale, inputs.location ?? 0, inputs.age, inputs.exercise, inputs.repair, inputs.basis ?? 'end');
+}
+
+/** `weibullEventProbability` with its inputs as arguments (the Monte Carlo's path: no object per call). */
+export function weibullEventProbabilityOf(
+  shape: number,
+  scale: number,
+  location: number,
+  age: number,
+  exercise: number | undefined,
+  repair: number | undefined,
+  basis: 'end' | 'average',
+): number {
   if (!validShape(shape, scale, location) || !(age >= 0)) return NaN;
   if (exercise !== undefined && !(exercise >= 0)) return NaN;
   if (repair !== undefined && !(repair >= 0)) return NaN;
