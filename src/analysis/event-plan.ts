@@ -11,19 +11,20 @@
  * expansion to the logic model's variables is applied after it, as in `evaluateEvents`. The test
  * suite holds it equal to `evaluateEvents` value for value.
  */
-import { modelProbability, type ModelContext } from '../reliability/models/index.js';
-import type { BasicEvent, ModelKind, Study } from '../study/types.js';
+import { modelProbability, prepareModel, type ModelContext } from '../reliability/models/index.js';
+import type { BasicEvent, Study } from '../study/types.js';
 import { ageInCase, fieldValue, type Case } from './case.js';
 import { EventProbabilityError } from './event-probability.js';
 
 interface Group {
-  model: ModelKind;
-  /** Model field → value, rewritten in place each trial (one object per group, no allocation). */
-  fields: Record<string, number>;
-  /** Fields fed by a varying parameter: name and parameter index. */
-  varyingFields: string[];
+  /** The model prepared for the group's fields and context (`prepareModel`). */
+  probability: (values: ArrayLike<number>) => number;
+  /** Field names, and their values in that order, rewritten in place each trial (no allocation). */
+  names: string[];
+  args: Float64Array;
+  /** Fields fed by a varying parameter: position in `args` and parameter index. */
+  varyingAt: Int32Array;
   varyingSources: Int32Array;
-  context: ModelContext;
   /** Events (indices) that share this group's probability. */
   events: Int32Array;
   /** The first event of the group, for messages. */
@@ -81,13 +82,14 @@ export class EventPlan {
         found.events.push(i);
         return;
       }
+      const names = Object.keys(fields);
       bySignature.set(signature, {
         group: {
-          model: e.model,
-          fields,
-          varyingFields,
+          probability: prepareModel(e.model, names, context),
+          names,
+          args: Float64Array.from(names, (f) => fields[f]!),
+          varyingAt: Int32Array.from(varyingFields, (f) => names.indexOf(f)),
           varyingSources: Int32Array.from(varyingSources),
-          context,
           events: new Int32Array(0),
           event: e,
         },
@@ -111,13 +113,16 @@ export class EventPlan {
    */
   evaluate(values: ArrayLike<number>, out: Float64Array): Float64Array {
     out.set(this.fixedProbability);
-    for (const g of this.groups) {
-      const f = g.fields;
-      const names = g.varyingFields;
-      const sources = g.varyingSources;
-      for (let k = 0; k < names.length; k++) f[names[k]!] = values[sources[k]!]!;
-      const q = checked(g.event, modelProbability(g.model, f, g.context), f);
-      const ev = g.events;
+    const groups = this.groups;
+    for (let g = 0; g < groups.length; g++) {
+      const group = groups[g]!;
+      const args = group.args;
+      const at = group.varyingAt;
+      const sources = group.varyingSources;
+      for (let k = 0; k < at.length; k++) args[at[k]!] = values[sources[k]!]!;
+      const q = group.probability(args);
+      if (!(q >= 0 && q <= 1)) throw new EventProbabilityError(group.event, q, Object.fromEntries(group.names.map((f, k) => [f, args[k]!])));
+      const ev = group.events;
       for (let k = 0; k < ev.length; k++) out[ev[k]!] = q;
     }
     return out;

@@ -116,7 +116,11 @@ export class TrialRunner {
     const valueOf = (key: string): number => lane[parameterIndex.get(key)!]!;
     const pBatch = new Float64Array(V * B);
     const rootsBatch = new Float64Array(diagram.roots.length * B);
-    const derivedOut = sink.derived;
+    // A batch's derived quantities, quantity-major ([q·B + b]), copied to the sink in runs of
+    // consecutive trials: the sink is quantity-major over the whole run, so writing it trial by
+    // trial would touch a distant cache line for every quantity.
+    const Q = this.job.recipe?.quantities.length ?? 0;
+    const derivedBatch = new Float64Array(Q * B);
 
     let t = from;
     try {
@@ -134,18 +138,28 @@ export class TrialRunner {
           for (let v = 0; v < V; v++) pBatch[v * B + b] = variableProbability[v]!;
         }
         evaluator.evaluate(pBatch, count, rootsBatch);
-        for (let k = 0; k < topCount; k++) sink.tops.set(rootsBatch.subarray(k * B, k * B + count), k * samples + t0);
+        copyRuns(rootsBatch, topCount, B, count, sink.tops, samples, t0);
         if (derived) {
           // Trial b's quantities from its roots (after the tops, stride B) and its own parameter values.
           for (let b = 0; b < count; b++) {
             t = t0 + b;
-            derived.evaluate(rootsBatch, topCount * B + b, B, parametersBatch, b * P, derivedOut, t, samples);
+            derived.evaluate(rootsBatch, topCount * B + b, B, parametersBatch, b * P, derivedBatch, b, B);
           }
+          copyRuns(derivedBatch, Q, B, count, sink.derived, samples, t0);
         }
         onBatch?.(count);
       }
     } catch (err) {
       throw new TrialError(t, err);
     }
+  }
+}
+
+/** rows × count values from batch[k·B + b] to sink[k·samples + t0 + b]. */
+function copyRuns(batch: Float64Array, rows: number, B: number, count: number, sink: Float64Array, samples: number, t0: number): void {
+  for (let k = 0; k < rows; k++) {
+    const from = k * B;
+    const to = k * samples + t0;
+    for (let b = 0; b < count; b++) sink[to + b] = batch[from + b]!;
   }
 }

@@ -29,8 +29,9 @@ export function splitMix64(state: bigint): [bigint, bigint] {
   return [s, z];
 }
 
+/** 32-bit left rotation on an int32 (the bits are what the reference's uint32 rotation gives). */
 function rotl(x: number, k: number): number {
-  return ((x << k) | (x >>> (32 - k))) >>> 0;
+  return (x << k) | (x >>> (32 - k));
 }
 
 /**
@@ -58,26 +59,34 @@ export function createRng(seed: number, stream = 0): Rng {
  * `s[0..3]`), for tests against the published algorithm; `createRng` is the normal way in.
  */
 export function xoshiro128StarStar(state: readonly [number, number, number, number]): Rng {
-  let [s0, s1, s2, s3] = state.map((w) => w >>> 0) as [number, number, number, number];
-  if ((s0 | s1 | s2 | s3) === 0) s0 = 1; // the all-zero state is the one fixed point; unreachable from SplitMix64 in practice
+  // The state as int32 words in a typed array: the same bits as the reference's uint32 words, but
+  // never a boxed number (a uint32 above 2^31 kept in a closure variable is a heap allocation per
+  // step, and every Monte Carlo trial takes dozens of steps).
+  const s = Int32Array.from(state, (w) => w | 0);
+  if ((s[0]! | s[1]! | s[2]! | s[3]!) === 0) s[0] = 1; // the all-zero state is the one fixed point; unreachable from SplitMix64 in practice
 
-  const nextUint32 = (): number => {
-    const result = Math.imul(rotl(Math.imul(s1, 5) >>> 0, 7), 9) >>> 0;
-    const t = (s1 << 9) >>> 0;
-    s2 = (s2 ^ s0) >>> 0;
-    s3 = (s3 ^ s1) >>> 0;
-    s1 = (s1 ^ s2) >>> 0;
-    s0 = (s0 ^ s3) >>> 0;
-    s2 = (s2 ^ t) >>> 0;
-    s3 = rotl(s3, 11);
+  /** One step; the output as an int32 (callers take >>> 0 or >>> 6 of it). */
+  const step = (): number => {
+    const s0 = s[0]!;
+    const s1 = s[1]!;
+    let s2 = s[2]!;
+    let s3 = s[3]!;
+    const result = Math.imul(rotl(Math.imul(s1, 5), 7), 9);
+    const t = s1 << 9;
+    s2 ^= s0;
+    s3 ^= s1;
+    s[1] = s1 ^ s2;
+    s[0] = s0 ^ s3;
+    s[2] = s2 ^ t;
+    s[3] = rotl(s3, 11);
     return result;
   };
 
-  // 52 random bits k, returned as (k + ½)/2^52: the smallest value is 2^-53, the largest 1 − 2^-53
-  // (both exact doubles), so the result is never 0 or 1 and the grid is symmetric about ½.
+  const nextUint32 = (): number => step() >>> 0;
+
   const next = (): number => {
-    const hi = nextUint32() >>> 6; // 26 bits
-    const lo = nextUint32() >>> 6; // 26 bits
+    const hi = step() >>> 6; // 26 bits
+    const lo = step() >>> 6; // 26 bits
     return (hi * 67108864 + lo + 0.5) / 4503599627370496;
   };
 

@@ -28,41 +28,69 @@ export function modelProbability(
   values: Readonly<Record<string, number>>,
   context: ModelContext = {},
 ): number {
-  // Positional calls and no closure: this runs for every event of every Monte Carlo trial.
-  switch (model) {
-    case 'fixed':
-      return fixedProbability(required(model, values, 'probability'));
-    case 'rate':
-      return rateProbability(required(model, values, 'rate'), required(model, values, 'exposure'));
-    case 'repairable':
-      return repairableUnavailability(required(model, values, 'rate'), required(model, values, 'repair'));
-    case 'tested':
-      return testedUnavailabilityOf(required(model, values, 'rate'), required(model, values, 'interval'), values['test_duration'], values['repair']);
-    case 'demand':
-      return demandProbabilityOf(required(model, values, 'probability'), values['rate'], values['interval']);
-    case 'weibull': {
-      if (context.ageYears === undefined) throw new Error("model 'weibull' needs the age (context.ageYears)");
-      return weibullEventProbabilityOf(
-        required(model, values, 'shape'),
-        required(model, values, 'scale'),
-        values['location'] ?? 0,
-        context.ageYears,
-        values['exercise'],
-        values['repair'],
-        context.exerciseBasis ?? 'end',
-      );
-    }
-    case 'switch':
-      if (context.on === undefined) throw new Error("model 'switch' needs its state (context.on)");
-      return switchProbability(context.on);
-  }
+  const fields = Object.keys(values);
+  return prepareModel(model, fields, context)(fields.map((f) => values[f]!));
 }
 
-/** A model's required field; its absence is a programming error upstream (the reader checks fields). */
-function required(model: ModelKind, values: Readonly<Record<string, number>>, field: string): number {
-  const v = values[field];
-  if (v === undefined) throw new Error(`model '${model}' needs '${field}'`);
-  return v;
+/**
+ * `modelProbability` prepared for one model, one list of field names and one context, as a function
+ * of the fields' values in that order (`values[k]` is field `fields[k]`): the field lookups and the
+ * checks of what is required are done here once, and each evaluation is one positional call. The
+ * Monte Carlo evaluates an event this way in every trial; modelProbability is the same path, once.
+ */
+export function prepareModel(model: ModelKind, fields: readonly string[], context: ModelContext = {}): (values: ArrayLike<number>) => number {
+  const at = (field: string): number => fields.indexOf(field);
+  const need = (field: string): number => {
+    const k = at(field);
+    if (k < 0) throw new Error(`model '${model}' needs '${field}'`);
+    return k;
+  };
+  const optional = (v: ArrayLike<number>, k: number): number | undefined => (k < 0 ? undefined : v[k]);
+  switch (model) {
+    case 'fixed': {
+      const p = need('probability');
+      return (v) => fixedProbability(v[p]!);
+    }
+    case 'rate': {
+      const rate = need('rate');
+      const exposure = need('exposure');
+      return (v) => rateProbability(v[rate]!, v[exposure]!);
+    }
+    case 'repairable': {
+      const rate = need('rate');
+      const repair = need('repair');
+      return (v) => repairableUnavailability(v[rate]!, v[repair]!);
+    }
+    case 'tested': {
+      const rate = need('rate');
+      const interval = need('interval');
+      const test = at('test_duration');
+      const repair = at('repair');
+      return (v) => testedUnavailabilityOf(v[rate]!, v[interval]!, optional(v, test), optional(v, repair));
+    }
+    case 'demand': {
+      const p = need('probability');
+      const rate = at('rate');
+      const interval = at('interval');
+      return (v) => demandProbabilityOf(v[p]!, optional(v, rate), optional(v, interval));
+    }
+    case 'weibull': {
+      if (context.ageYears === undefined) throw new Error("model 'weibull' needs the age (context.ageYears)");
+      const age = context.ageYears;
+      const basis = context.exerciseBasis ?? 'end';
+      const shape = need('shape');
+      const scale = need('scale');
+      const location = at('location');
+      const exercise = at('exercise');
+      const repair = at('repair');
+      return (v) => weibullEventProbabilityOf(v[shape]!, v[scale]!, location < 0 ? 0 : v[location]!, age, optional(v, exercise), optional(v, repair), basis);
+    }
+    case 'switch': {
+      if (context.on === undefined) throw new Error("model 'switch' needs its state (context.on)");
+      const on = context.on;
+      return () => switchProbability(on);
+    }
+  }
 }
 
 /**
