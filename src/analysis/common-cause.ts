@@ -191,13 +191,48 @@ export class CommonCauseExpansion {
    * gets f_k·Q̄. `value` gives a parameter's value by key (the case's, or a sampled one).
    */
   apply(total: ArrayLike<number>, value: (key: string) => number, out: Float64Array = new Float64Array(this.variableCount)): Float64Array {
+    // The arithmetic of `numbers` (Q̄ summed in member order from 0), without its per-call
+    // objects: this runs in every Monte Carlo trial.
     for (let i = 0; i < total.length; i++) out[i] = total[i]!;
-    for (const layout of this.groups) {
-      const { factors, reference } = this.numbers(layout, total, value);
-      for (const i of layout.members) out[i] = factors[1]! * total[i]!;
-      for (const s of layout.shared) out[s.variable] = factors[s.positions.length]! * reference;
+    for (let g = 0; g < this.groups.length; g++) {
+      const layout = this.groups[g]!;
+      const factors = this.factorsOf(g, value);
+      const members = layout.members;
+      let sum = 0;
+      for (let k = 0; k < members.length; k++) sum += total[members[k]!]!;
+      const reference = sum / members.length;
+      for (let k = 0; k < members.length; k++) out[members[k]!] = factors[1]! * total[members[k]!]!;
+      for (let k = 0; k < layout.shared.length; k++) {
+        const s = layout.shared[k]!;
+        out[s.variable] = factors[s.positions.length]! * reference;
+      }
     }
     return out;
+  }
+
+  /** Per group: its fields and keys, and the parameter values and factors last computed (trials mostly repeat them). */
+  private readonly lastFactors: { fields: [string, string][]; values: Float64Array; factors: number[] | undefined }[] = [];
+
+  /** ccfFactors of group g at the parameter values `value` gives, reusing the last result when the values are the same. */
+  private factorsOf(g: number, value: (key: string) => number): number[] {
+    const group = this.groups[g]!.group;
+    let memo = this.lastFactors[g];
+    if (!memo) {
+      const fields = Object.entries(group.fields);
+      memo = { fields, values: new Float64Array(fields.length), factors: undefined };
+      this.lastFactors[g] = memo;
+    }
+    let same = memo.factors !== undefined;
+    for (let k = 0; k < memo.fields.length; k++) {
+      const v = value(memo.fields[k]![1]);
+      if (!Object.is(v, memo.values[k])) same = false;
+      memo.values[k] = v;
+    }
+    if (same) return memo.factors!;
+    const parameters: Record<string, number> = {};
+    memo.fields.forEach(([field], k) => (parameters[field] = memo.values[k]!));
+    memo.factors = ccfFactors(group.method, group.testing, this.groups[g]!.members.length, parameters);
+    return memo.factors;
   }
 }
 

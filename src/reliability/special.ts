@@ -372,26 +372,36 @@ export function normalQuantile(p: number): number {
 // ---------------------------------------------------------------------------------------------
 // Quantile solver shared by the gamma and beta quantiles
 
-/** What a Halley step needs at x, written by `at(x)`: f(x), f(x)/f′(x) and f″(x)/f′(x). */
+/** What a step needs at x, written by `at(x)`: f(x), f(x)/f′(x), f″(x)/f′(x) and f‴(x)/f′(x). */
 interface IncreasingEquation {
   at(x: number): void;
   f: number;
   ratio: number;
   curvature: number;
+  third: number;
 }
 
 /**
- * A Halley step this small relative to x (or to 1 − x, for a beta quantile near 1) leaves an error of the order of its cube (the method's
- * cubic convergence), far below rounding: the solve stops after applying it instead of paying one
- * more evaluation to see the step at rounding level.
+ * After a step of a high-order method the remaining error is about |r|·m^k, with r = f/f′ the
+ * Newton step, m = max(|r·f″/f′|, |r|·√|f‴/f′|) how far from linear f is over that step (the
+ * higher derivatives of these smooth CDFs scale with the first two), and k = 2 for Halley's step,
+ * 3 for the fourth-order one. When that is below a tenth of a unit in the last place of x (or of
+ * 1 − x, for a beta quantile near 1), the solve stops after applying the step instead of paying
+ * one more evaluation to see the next step at rounding level.
  */
-const SETTLED_STEP = 1e-7;
+const SETTLED = 1e-17;
+/** The fourth-order step is taken only this close to the root (m below it), where its series converges fast. */
+const NEAR = 0.1;
 
 /**
- * Safeguarded Halley iteration for an increasing CDF-like function. A bracket [lo, hi] is kept from
- * the sign of f; a step that leaves it is replaced by shrinking towards the bracket (geometrically
- * when it spans decades, so a quantile of 1e-200 is still reached in tens of steps). The equation
- * is an object prepared once (no closure or array is made per step).
+ * Safeguarded iteration for an increasing CDF-like function. Near the root, one step of the
+ * inverse function's Taylor series to third order in r = f/f′ (series reversion of
+ * f(x + Δ) = 0: Δ = −r·(1 + c₂r + (2c₂² − c₃)r²), c₂ = f″/2f′, c₃ = f‴/6f′; fourth-order
+ * convergence); further out, Halley's step (cubic), or Newton's where Halley's denominator is
+ * unsafe. A bracket [lo, hi] is kept from the sign of f; a step that leaves it is replaced by
+ * shrinking towards the bracket (geometrically when it spans decades, so a quantile of 1e-200 is
+ * still reached in tens of steps). The equation is an object prepared once (no closure or array is
+ * made per step).
  */
 function solveIncreasing(eq: IncreasingEquation, x0: number, lo0: number, hi0: number): number {
   let lo = lo0;
@@ -403,18 +413,29 @@ function solveIncreasing(eq: IncreasingEquation, x0: number, lo0: number, hi0: n
     if (f === 0) return x;
     if (f < 0) lo = x;
     else hi = x;
-    const ratio = eq.ratio;
-    const denom = 1 - 0.5 * ratio * eq.curvature;
-    const halley = denom > 0.5 && Number.isFinite(denom);
-    let next = halley ? x - ratio / denom : x - ratio;
+    const r = eq.ratio;
+    const rc = r * eq.curvature;
+    // How far from linear f is over the step (see SETTLED).
+    const m = Math.max(Math.abs(rc), Math.abs(r) * Math.sqrt(Math.abs(eq.third)));
+    let next: number;
+    let left: number;
+    if (m < NEAR) {
+      const c2 = 0.5 * eq.curvature;
+      const c3 = eq.third / 6;
+      next = x - r * (1 + c2 * r + (2 * c2 * c2 - c3) * r * r);
+      left = Math.abs(r) * m * m * m;
+    } else {
+      const denom = 1 - 0.5 * rc;
+      const halley = denom > 0.5 && Number.isFinite(denom);
+      next = halley ? x - r / denom : x - r;
+      left = halley ? Math.abs(r) * m * m : Infinity;
+    }
     if (Number.isFinite(next)) {
-      const step = Math.abs(next - x);
       // Converged: the step is at rounding level (it may even round back onto x itself).
-      if (step <= 4 * EPS * Math.abs(x)) return next;
-      // A small Halley step inside the bracket leaves an error below rounding; small, that is,
-      // against the distance to the nearer end of the domain (1 − x matters for a beta near 1).
+      if (Math.abs(next - x) <= 4 * EPS * Math.abs(x)) return next;
+      // What the step leaves is far below rounding, against the distance to the nearer end of the domain.
       const room = hi0 === Infinity ? Math.abs(x) : Math.min(Math.abs(x), hi0 - x);
-      if (halley && step <= SETTLED_STEP * room && next > lo && next < hi) return next;
+      if (left <= SETTLED * room && next > lo && next < hi) return next;
     }
     if (!(next > lo && next < hi) || !Number.isFinite(next)) {
       if (hi === Infinity) next = lo * 4;
@@ -439,6 +460,7 @@ export class GammaInverse implements IncreasingEquation {
   f = 0;
   ratio = 0;
   curvature = 0;
+  third = 0;
   private readonly shape: GammaShape;
   private readonly lnGammaA: number;
   /** Wilson–Hilferty: 1 − 1/(9a) and 3√a. */
@@ -486,7 +508,10 @@ export class GammaInverse implements IncreasingEquation {
     const dens = Math.exp((a - 1) * Math.log(x) - x - this.lnGammaA);
     this.f = f;
     this.ratio = f / dens;
-    this.curvature = (a - 1) / x - 1;
+    // (ln f′)′ = (a − 1)/x − 1; f‴/f′ = g² + g′ with g′ = −(a − 1)/x².
+    const g = (a - 1) / x - 1;
+    this.curvature = g;
+    this.third = g * g - (a - 1) / (x * x);
   }
 }
 
@@ -648,6 +673,7 @@ class BetaLowerInverse implements IncreasingEquation {
   f = 0;
   ratio = 0;
   curvature = 0;
+  third = 0;
   private target = 0;
   private readonly a: number;
   private readonly b: number;
@@ -699,7 +725,11 @@ class BetaLowerInverse implements IncreasingEquation {
     const dens = Math.exp((a - 1) * Math.log(x) + (b - 1) * Math.log1p(-x) - this.lnB);
     this.f = f;
     this.ratio = f / dens;
-    this.curvature = (a - 1) / x - (b - 1) / (1 - x);
+    // (ln f′)′ = (a − 1)/x − (b − 1)/(1 − x); f‴/f′ = g² + g′ with g′ = −(a − 1)/x² − (b − 1)/(1 − x)².
+    const y = 1 - x;
+    const g = (a - 1) / x - (b - 1) / y;
+    this.curvature = g;
+    this.third = g * g - (a - 1) / (x * x) - (b - 1) / (y * y);
   }
 }
 
