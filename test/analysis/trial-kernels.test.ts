@@ -21,7 +21,7 @@ import {
 import { createRng } from '../../src/reliability/random.js';
 import type { CommonCauseGroup } from '../../src/study/types.js';
 
-const at = { file: 'logic.yaml', line: 1, column: 1 };
+const at = { file: 'logic.yaml', line: 1, col: 1 };
 
 describe('the common-cause expansion in a trial', () => {
   const events = ['a', 'b', 'c', 'd', 'e', 'f', 'g'].map((id) => ({ id }));
