@@ -4,8 +4,8 @@
  * the probabilities of a fixed list of diagram roots and the parameters' values; it holds no
  * probability and no reference to the decision-diagram manager (plain data, so a worker thread can
  * take a copy). The shared-causes stage computes its sections at the base case through the same
- * functions (`treeNumbersInto`, `combineModesInto`, `tails`), so a Monte Carlo trial with every parameter at
- * its value gives the sections' numbers, bit for bit.
+ * functions (`treeNumbersInto`, `combineModesInto`, `tails`), so a Monte Carlo trial with every
+ * parameter at its value gives the sections' numbers, bit for bit.
  */
 import type { CompiledLogic } from '../logic/index.js';
 import type { CountSet, FailureModeSet, Study } from '../study/types.js';

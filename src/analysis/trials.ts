@@ -4,7 +4,8 @@
  * of trials can run here or on a worker thread from a copy. Within a block the trials go through in
  * batches: each trial's parameters are drawn and its events evaluated as before, then the diagram
  * pass runs once for the whole batch (one array over the batch per node, `BatchEvaluator`), then
- * each trial's derived quantities are computed. No number depends on the batch or block a trial
+ * each trial's derived quantities are computed. Nothing is allocated per trial (every array and
+ * prepared function is made with the runner). No number depends on the batch or block a trial
  * falls in: a trial's uniforms depend only on the seed and its index (`uniformRows`), and every
  * other step is the same arithmetic on that trial's values alone.
  */
