@@ -2,8 +2,9 @@
  * `evaluateEvents` prepared for one case and many parameter vectors (Monte Carlo trials): every
  * lookup that does not change between trials — which parameter feeds which field through the
  * case's overrides (`fieldValue`), each event's age (`ageInCase`), switch states — is resolved once,
- * and each trial only copies the varying parameters into the model's fields and calls the same
- * `modelProbability`. Two further savings, neither of which changes a number:
+ * and each trial only copies the varying parameters into the model's field values and calls the
+ * model prepared for them (`prepareModel`, the path `modelProbability` itself takes). Two further
+ * savings, neither of which changes a number:
  *  - events that read no varying parameter are computed once;
  *  - events with the same model, the same parameter sources, the same age and state (the gates'
  *    identical components of one class) are computed once per trial and the value shared.

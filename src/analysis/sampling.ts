@@ -49,7 +49,7 @@ export class ParameterSampler implements SamplerPlan {
   private readonly draws: Draw[] = [];
   /** Dimensions read as standard normals by the fits' pairs (each once per trial, for both of a fit's parameters). */
   private readonly normalDims: number[] = [];
-  private normals = new Float64Array(0);
+  private readonly normals: Float64Array;
   private readonly params: Parameter[];
   private readonly groupAt: (id: string) => Parameter['at'];
 
