@@ -69,8 +69,8 @@ export function commonCauseAdjustment(p: readonly number[]): number[] {
  */
 function shareOfUnion(p: ArrayLike<number>, offset: number, stride: number, n: number, dist: Float64Array, out: Float64Array, at: number, outStride: number): void {
   for (let i = 0; i < n; i++) {
-    dist.fill(0, 0, n);
     dist[0] = 1;
+    for (let j = 1; j < n; j++) dist[j] = 0;
     let m = 0;
     for (let k = 0; k < n; k++) {
       if (k === i) continue;

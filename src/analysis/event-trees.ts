@@ -54,6 +54,9 @@ export interface TreePlan {
   /** 1 when the factor is the heading's failure (q), 0 when it works (1 − q). */
   factorFails: Uint8Array;
   outcomeOf: Int32Array;
+  /** Per outcome o: its sequences, in sequence order, at [outcomeStart[o], outcomeStart[o + 1]) of outcomeSequences. */
+  outcomeStart: Int32Array;
+  outcomeSequences: Int32Array;
   /** The values it reads: slot and parameter key. */
   reads: { slot: number; key: string }[];
 }
@@ -151,6 +154,15 @@ function treePlan(tree: EventTree, cells: TreeRecipe['cells'], outcomeOf: number
     }
   });
   factorStart[cells.length] = factorSlot.length;
+  const outcomeStart = new Int32Array(tree.outcomes.length + 1);
+  const outcomeSequences: number[] = [];
+  tree.outcomes.forEach((_, o) => {
+    outcomeStart[o] = outcomeSequences.length;
+    outcomeOf.forEach((of, i) => {
+      if (of === o) outcomeSequences.push(i);
+    });
+  });
+  outcomeStart[tree.outcomes.length] = outcomeSequences.length;
   return {
     ranges: R,
     sequences: tree.sequences.length,
@@ -161,6 +173,8 @@ function treePlan(tree: EventTree, cells: TreeRecipe['cells'], outcomeOf: number
     factorSlot: Int32Array.from(factorSlot),
     factorFails: Uint8Array.from(factorFails),
     outcomeOf: Int32Array.from(outcomeOf),
+    outcomeStart,
+    outcomeSequences: Int32Array.from(outcomeSequences),
     reads: [...reads].map(([s, key]) => ({ slot: s, key })),
   };
 }
@@ -182,7 +196,7 @@ export function treeNumbersInto(
 ): void {
   const R = plan.ranges;
   const S = plan.sequences;
-  const { rangeSlots, cellRoot, factorStart, factorSlot, factorFails, outcomeOf } = plan;
+  const { rangeSlots, cellRoot, factorStart, factorSlot, factorFails, outcomeStart, outcomeSequences } = plan;
   const { rangeP, conditional, byRange, probability, outcomeByRange, outcomeProbability } = w;
   for (let r = 0; r < R; r++) {
     const upper = values[valueOffset + rangeSlots[2 * r]!]!;
@@ -210,7 +224,7 @@ export function treeNumbersInto(
     let total = 0;
     for (let r = 0; r < R; r++) {
       let s = 0;
-      for (let i = 0; i < S; i++) if (outcomeOf[i] === o) s += byRange[i * R + r]!;
+      for (let k = outcomeStart[o]!; k < outcomeStart[o + 1]!; k++) s += byRange[outcomeSequences[k]! * R + r]!;
       outcomeByRange[o * R + r] = s;
       total += s;
     }
