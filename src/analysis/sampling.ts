@@ -185,7 +185,8 @@ export function cholesky2(c: readonly (readonly number[])[]): [number, number, n
 /**
  * Rows of unit uniforms, one per trial: plain sampling draws each row from the generator in order;
  * Latin hypercube sampling (McKay, Beckman & Conover 1979) draws each dimension's column of n
- * stratified values up front (`latinHypercube`), dimension by dimension, from the same generator.
+ * stratified values up front (`latinHypercubeColumns`, or the ones given: a run draws them once
+ * for all its threads), dimension by dimension, from the same generator.
  * Either way trial t's row depends only on the seed and t: a reader asked for a later trial than the
  * next one (another thread ran the trials between) passes over the generator's outputs of the trials
  * it skips, so it gets the rows a reader that went through every trial would.
@@ -195,9 +196,15 @@ export interface UniformRows {
   row(t: number, out: Float64Array): void;
 }
 
-export function uniformRows(seed: number, method: 'monte-carlo' | 'latin-hypercube', trials: number, dimensions: number): UniformRows {
-  const rng: Rng = createRng(seed);
+export function uniformRows(
+  seed: number,
+  method: 'monte-carlo' | 'latin-hypercube',
+  trials: number,
+  dimensions: number,
+  columns?: Float64Array,
+): UniformRows {
   if (method === 'monte-carlo') {
+    const rng: Rng = createRng(seed);
     let next = 0;
     return {
       row(t, out) {
@@ -209,11 +216,25 @@ export function uniformRows(seed: number, method: 'monte-carlo' | 'latin-hypercu
       },
     };
   }
-  const columns: Float64Array[] = [];
-  for (let d = 0; d < dimensions; d++) columns.push(Float64Array.from(latinHypercube(rng, trials)));
+  const table = columns ?? latinHypercubeColumns(seed, trials, dimensions);
   return {
     row(t, out) {
-      for (let d = 0; d < dimensions; d++) out[d] = columns[d]![t]!;
+      for (let d = 0; d < dimensions; d++) out[d] = table[d * trials + t]!;
     },
   };
+}
+
+/**
+ * The Latin hypercube columns of a run as `uniformRows` reads them: dimension d's column of n
+ * stratified values (`latinHypercube`) at [d·n, (d + 1)·n), drawn dimension by dimension from the
+ * seed's generator. Drawing them is most of a short run's sampling cost (about 100 ms for 19
+ * dimensions of 100,000 trials), so a run draws them once, in shared memory (`shared`) when worker
+ * threads read them too.
+ */
+export function latinHypercubeColumns(seed: number, trials: number, dimensions: number, shared = false): Float64Array {
+  const rng: Rng = createRng(seed);
+  const size = dimensions * trials;
+  const columns = shared ? new Float64Array(new SharedArrayBuffer(size * 8)) : new Float64Array(size);
+  for (let d = 0; d < dimensions; d++) columns.set(latinHypercube(rng, trials), d * trials);
+  return columns;
 }

@@ -28,6 +28,8 @@ export interface TrialJob {
   recipe?: DerivedRecipe;
   /** Trials in the whole run (Latin hypercube strata depend on it). */
   samples: number;
+  /** Latin hypercube sampling: the run's columns (sampling.ts `latinHypercubeColumns`), drawn once, shared by the threads. */
+  columns?: Float64Array;
 }
 
 /**
@@ -84,7 +86,7 @@ export class TrialRunner {
     this.B = batch;
     this.sampler = new ParameterSampler(study, parametersSampled(study));
     this.plan = new EventPlan(study, baseCase(), this.sampler.varying);
-    this.rows = uniformRows(study.settings.seed, study.settings.sampling, job.samples, this.sampler.dimensions);
+    this.rows = uniformRows(study.settings.seed, study.settings.sampling, job.samples, this.sampler.dimensions, job.columns);
     this.evaluator = new BatchEvaluator(job.diagram, batch);
     this.derived = job.recipe ? new DerivedEvaluator(job.recipe) : undefined;
     const P = study.parameters.length;

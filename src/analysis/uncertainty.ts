@@ -17,7 +17,7 @@ import { parametersSampled } from './event-plan.js';
 import { derivedRecipe, sectionValue, type DerivedRecipe } from './outcome-quantities.js';
 import type { QuantityUncertainty, Results, UncertaintyResult } from './results.js';
 import { sampleQuantile } from '../reliability/distributions.js';
-import { ParameterSampler } from './sampling.js';
+import { ParameterSampler, latinHypercubeColumns } from './sampling.js';
 import { meanAndSd, quantileSorted, sortedCopy, summarize } from './statistics.js';
 import { CHUNK, runParallel } from './parallel-trials.js';
 import { DEFAULT_BATCH, TrialError, TrialRunner, trialSink, type TrialJob, type TrialSink } from './trials.js';
@@ -67,6 +67,10 @@ export function trialJob(study: Study, quantifier: CaseQuantifier, samples: numb
     samples,
   };
   if (derived) job.recipe = derived.recipe;
+  if (study.settings.sampling === 'latin-hypercube') {
+    const dimensions = new ParameterSampler(study, parametersSampled(study)).dimensions;
+    job.columns = latinHypercubeColumns(study.settings.seed, samples, dimensions, true);
+  }
   return job;
 }
 

@@ -3,7 +3,9 @@
 //  - CommonCauseExpansion.apply reuses a group's factors while its parameters repeat; the oracle is
 //    the group's `numbers` (ccfFactors and the members' mean) applied by hand;
 //  - prepareModel evaluates a model from positional values; the oracle is each model's own
-//    function (models/*.ts), called with its inputs by name.
+//    function (models/*.ts), called with its inputs by name;
+//  - a Latin hypercube run draws its columns once, shared by its threads; the oracle is the
+//    definition (one latinHypercube column per dimension, in order, from the seed's generator).
 // The correctness of the factors and the models themselves is tested against NUREG/CR-5485,
 // NUREG-0492 and IEC 61508-6 elsewhere (test/ccf, test/reliability/models.test.ts).
 import { describe, expect, it } from 'vitest';
@@ -18,7 +20,8 @@ import {
   testedUnavailability,
   weibullEventProbability,
 } from '../../src/reliability/models/index.js';
-import { createRng } from '../../src/reliability/random.js';
+import { createRng, latinHypercube } from '../../src/reliability/random.js';
+import { latinHypercubeColumns, uniformRows } from '../../src/analysis/sampling.js';
 import type { CommonCauseGroup } from '../../src/study/types.js';
 
 const at = { file: 'logic.yaml', line: 1, col: 1 };
@@ -105,5 +108,25 @@ describe('prepareModel', () => {
     expect(() => prepareModel('weibull', ['shape', 'scale'])).toThrow(/needs the age/);
     expect(() => prepareModel('switch', [])).toThrow(/needs its state/);
     expect(prepareModel('switch', [], { on: true })([])).toBe(1);
+  });
+});
+
+describe('Latin hypercube columns drawn once for a run', () => {
+  it('are the columns latinHypercube draws dimension by dimension, and give uniformRows the same rows', () => {
+    const trials = 500;
+    const dims = 4;
+    const shared = latinHypercubeColumns(42, trials, dims, true);
+    expect(shared.buffer).toBeInstanceOf(SharedArrayBuffer);
+    const rng = createRng(42);
+    for (let d = 0; d < dims; d++) expect(Array.from(shared.subarray(d * trials, (d + 1) * trials))).toEqual(latinHypercube(rng, trials));
+    const own = uniformRows(42, 'latin-hypercube', trials, dims);
+    const given = uniformRows(42, 'latin-hypercube', trials, dims, shared);
+    const a = new Float64Array(dims);
+    const b = new Float64Array(dims);
+    for (let t = 0; t < trials; t++) {
+      own.row(t, a);
+      given.row(t, b);
+      expect(Array.from(b)).toEqual(Array.from(a));
+    }
   });
 });
