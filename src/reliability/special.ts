@@ -354,10 +354,13 @@ const FAR_TAIL = Math.exp(-25);
  * exactly.
  */
 export function normalQuantile(p: number): number {
-  if (Number.isNaN(p) || p < 0 || p > 1) return NaN;
+  if (!(p >= 0 && p <= 1)) return NaN;
+  return p > 0.5 ? -lowerNormalQuantile(1 - p) : lowerNormalQuantile(p);
+}
+
+/** normalQuantile for 0 ≤ p ≤ ½. */
+function lowerNormalQuantile(p: number): number {
   if (p === 0) return -Infinity;
-  if (p === 1) return Infinity;
-  if (p > 0.5) return -normalQuantile(1 - p);
   let x = wichuraLower(p);
   if (p < FAR_TAIL) {
     // Halley step for f(x) = Φ(x) − p: f' = φ(x), f'' = −x·φ(x), so x ← x − u/(1 + x·u/2), u = f/φ.
