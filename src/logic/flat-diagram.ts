@@ -62,21 +62,33 @@ export class BatchEvaluator {
   evaluate(p: Float64Array, count: number, out: Float64Array): void {
     const B = this.batch;
     const val = this.values;
-    const { variable, low, high, roots } = this.d;
-    const n = variable.length;
-    for (let i = 0; i < n; i++) {
-      const pv = variable[i]! * B;
-      const hv = high[i]! * B;
-      const lv = low[i]! * B;
-      const at = (i + 2) * B;
-      for (let b = 0; b < count; b++) {
-        const x = p[pv + b]!;
-        val[at + b] = x * val[hv + b]! + (1 - x) * val[lv + b]!;
-      }
-    }
+    nodePass(this.d, p, count, B, val);
+    // A plain copy: a subarray per root was an allocation and two builtin calls per root and batch.
+    const roots = this.d.roots;
     for (let r = 0; r < roots.length; r++) {
       const from = roots[r]! * B;
-      out.set(val.subarray(from, from + count), r * B);
+      const to = r * B;
+      for (let b = 0; b < count; b++) out[to + b] = val[from + b]!;
+    }
+  }
+}
+
+/**
+ * The bottom-up pass itself, in a function of its own: its loop is where the engine compiles on
+ * the fly (on-stack replacement) during the first batch, and code after such a loop that has not
+ * run yet is compiled without type information and thrown back to the interpreter on every call.
+ */
+function nodePass(d: FlatDiagram, p: Float64Array, count: number, B: number, val: Float64Array): void {
+  const { variable, low, high } = d;
+  const n = variable.length;
+  for (let i = 0; i < n; i++) {
+    const pv = variable[i]! * B;
+    const hv = high[i]! * B;
+    const lv = low[i]! * B;
+    const at = (i + 2) * B;
+    for (let b = 0; b < count; b++) {
+      const x = p[pv + b]!;
+      val[at + b] = x * val[hv + b]! + (1 - x) * val[lv + b]!;
     }
   }
 }
