@@ -94,6 +94,9 @@ const NEXT = 3;
  */
 const CACHE_RATIO = 4;
 
+/** Single-root topological lists kept (see BddManager.topological): the tops of a study, and a few more. */
+const WALK_CACHE_ROOTS = 8;
+
 /** Node ids stay below 2^28 so `(h << 3) | op` in a cache key is exact. */
 const MAX_NODE_ID = 2 ** 28;
 
@@ -144,6 +147,8 @@ export class BddManager {
   readonly collectionMode: 'auto' | 'always' | 'never';
   private readonly held: Int32Array[] = [];
   private collectingDepth = 0;
+  /** Recent single-root topological lists (see topological), emptied by every collection. */
+  private readonly walkCache = new Map<number, Int32Array>();
   private collectAt = MIN_NODES_BEFORE_COLLECTION;
   private collections = 0;
 
@@ -288,6 +293,7 @@ export class BddManager {
     this.count = next;
     for (const arr of roots) for (let i = 0; i < arr.length; i++) if (arr[i]! >= 2) arr[i] = newId[arr[i]!]!;
     this.ce.fill(0);
+    this.walkCache.clear();
     this.stamp.fill(0);
     this.stampGen = 0;
     this.collections++;
@@ -418,9 +424,26 @@ export class BddManager {
 
   /**
    * The internal nodes reachable from `roots`, children before parents (a post-order), each once.
-   * Every bottom-up or top-down pass over a diagram walks this list.
+   * Every bottom-up or top-down pass over a diagram walks this list. The list is shared: read it,
+   * never write to it.
    */
   topological(roots: ArrayLike<number>): Int32Array {
+    // One root's list is asked for again and again (probability, cut sets, importance, each
+    // further analysis of the same top): the last few are kept until a collection renumbers ids.
+    // Nodes never change once made, so what a root reaches cannot change before then.
+    if (roots.length === 1) {
+      const root = roots[0]!;
+      const known = this.walkCache.get(root);
+      if (known) return known;
+      const list = this.walk(roots);
+      if (this.walkCache.size >= WALK_CACHE_ROOTS) this.walkCache.delete(this.walkCache.keys().next().value!);
+      this.walkCache.set(root, list);
+      return list;
+    }
+    return this.walk(roots);
+  }
+
+  private walk(roots: ArrayLike<number>): Int32Array {
     const gen = this.nextStamp();
     const stamp = this.stamp;
     const nd = this.nd;
