@@ -75,7 +75,7 @@ export function buildComparisonView(c: Comparison, oldResults: Results, newResul
     },
     header: { title: `${w.title} — comparison`, revision: revisions, status: w.status },
     meta: {
-      title: `${w.title} — comparison of ${revisionName(c, 'old')} and ${revisionName(c, 'new')}`,
+      title: `${w.title} — comparison of ${revisionName(c, 'old').startsWith('revision ') ? `revisions ${o.revision} and ${w.revision}` : `${revisionName(c, 'old')} and ${revisionName(c, 'new')}`}`,
       author: newResults.study.prepared_by.join('; '),
       subject: `What changed from ${revisionName(c, 'old')} (as of ${o.as_of}) to ${revisionName(c, 'new')} (as of ${w.as_of}), and what moved the answer`,
       keywords: ['fault tree', 'failure probability', 'revision comparison', w.facility].join(', '),
