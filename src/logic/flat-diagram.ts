@@ -86,7 +86,19 @@ function nodePass(d: FlatDiagram, p: Float64Array, count: number, B: number, val
     const hv = high[i]! * B;
     const lv = low[i]! * B;
     const at = (i + 2) * B;
-    for (let b = 0; b < count; b++) {
+    // Four vectors a step (a quarter of the loop's own work; each vector's arithmetic unchanged).
+    let b = 0;
+    for (; b + 3 < count; b += 4) {
+      const x0 = p[pv + b]!;
+      const x1 = p[pv + b + 1]!;
+      const x2 = p[pv + b + 2]!;
+      const x3 = p[pv + b + 3]!;
+      val[at + b] = x0 * val[hv + b]! + (1 - x0) * val[lv + b]!;
+      val[at + b + 1] = x1 * val[hv + b + 1]! + (1 - x1) * val[lv + b + 1]!;
+      val[at + b + 2] = x2 * val[hv + b + 2]! + (1 - x2) * val[lv + b + 2]!;
+      val[at + b + 3] = x3 * val[hv + b + 3]! + (1 - x3) * val[lv + b + 3]!;
+    }
+    for (; b < count; b++) {
       const x = p[pv + b]!;
       val[at + b] = x * val[hv + b]! + (1 - x) * val[lv + b]!;
     }

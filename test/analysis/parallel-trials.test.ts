@@ -46,14 +46,15 @@ describe('the batch pass over a frozen diagram', () => {
     const roots = quantifier.model.topGates.map((g) => compiled.gateRoots[g]!);
     const vars = quantifier.model.graph.variables.length;
     const flat = flattenDiagram(compiled.manager, roots, vars);
-    const B = 5;
+    // 9 vectors of room, 7 evaluated: the pass's four-at-a-time steps and its remainder both run.
+    const B = 9;
     const batch = new BatchEvaluator(flat, B);
     const rng = createRng(99);
     const p = new Float64Array(vars * B);
     for (let i = 0; i < p.length; i++) p[i] = rng.next() ** 4;
     const out = new Float64Array(roots.length * B);
-    batch.evaluate(p, 3, out);
-    for (let b = 0; b < 3; b++) {
+    batch.evaluate(p, 7, out);
+    for (let b = 0; b < 7; b++) {
       const one = Float64Array.from({ length: vars }, (_, v) => p[v * B + b]!);
       const want = evaluator.evaluate(one);
       roots.forEach((_, r) => expect(out[r * B + b]).toBe(want[r]));
