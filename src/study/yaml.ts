@@ -4,6 +4,7 @@
  */
 import { isAlias, isMap, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type ErrorCode, type Node, type Pair, type YAMLMap } from 'yaml';
 import { StudyError } from './errors.js';
+import { readPlainYaml } from './plain-yaml.js';
 import type { Pos } from './types.js';
 
 export type PathSegment = string | number;
@@ -34,6 +35,17 @@ export const MAX_EXPANDED_CHARS = 16 * 1024 * 1024;
 export const MAX_TEXT_CHARS = 64 * 1024;
 
 export function parseYamlFile(file: string, text: string): YamlFile {
+  // Most study files are plain YAML: read them quickly; anything else takes the full parser below.
+  const plain = readPlainYaml(text, { maxDepth: MAX_DEPTH, maxTextChars: MAX_TEXT_CHARS, maxExpandedChars: MAX_EXPANDED_CHARS });
+  if (plain) {
+    const where = (path: readonly PathSegment[], wantKey: boolean): Pos => ({ file, ...plain.at(path, wantKey) });
+    return { file, text, data: plain.data, at: (path) => where(path, false), keyAt: (path) => where(path, true), sourceAt: plain.sourceAt };
+  }
+  return parseYamlDocument(file, text);
+}
+
+/** The full parser: any YAML, every check, the parser's own errors explained. */
+export function parseYamlDocument(file: string, text: string): YamlFile {
   const lineCounter = new LineCounter();
   // stringKeys: a key that is a list or a mapping is an error here, not a warning printed by the parser later.
   // uniqueKeys is off because the parser compares each key with every earlier one (quadratic in the
@@ -110,7 +122,7 @@ export function parseYamlFile(file: string, text: string): YamlFile {
   const sourceAt = (path: readonly PathSegment[]): string | undefined => {
     let node: unknown = doc.contents;
     for (const seg of path) {
-      if (isMap(node)) node = node.items.find((p) => (isScalar(p.key) ? String(p.key.value) : p.key) === String(seg))?.value;
+      if (isMap(node)) node = pairOf(node as YAMLMap, String(seg))?.value;
       else if (isSeq(node) && typeof seg === 'number') node = node.items[seg];
       else return undefined;
     }

@@ -1,0 +1,474 @@
+/**
+ * A quick reader for the plain YAML that studies are written in: block mappings and sequences,
+ * flow mappings and sequences, plain and simply quoted scalars, comments. It gives the same data
+ * and the same positions as the full parser (yaml.ts), about ten times faster, and declines
+ * (returns undefined) on anything else: anchors, aliases, tags, block scalars, multi-line plain
+ * scalars, escapes, tabs, empty values, duplicate keys, unusual keys, documents markers, a text
+ * over the limits — and on anything that could be an error. A declined file goes through the full
+ * parser, so every message about a file stays the full parser's and our checks'.
+ *
+ * Positions follow the full parser's ranges: a mapping starts at its first key, a block sequence at
+ * its first '-', a flow collection at its bracket, a scalar at its first character (a quote for a
+ * quoted one). test/study/plain-yaml.test.ts compares data and every position with the full
+ * parser on generated and real study files.
+ */
+import { isScalar, LineCounter, parseDocument, type ScalarTag } from 'yaml';
+
+/** What the reader keeps of each value to locate it: its start, and for a scalar its end. */
+type Shadow = ShadowScalar | ShadowMap | ShadowSeq;
+interface ShadowScalar {
+  kind: 0;
+  start: number;
+  end: number;
+}
+interface ShadowMap {
+  kind: 1;
+  start: number;
+  entries: Map<string, { keyStart: number; value: Shadow }>;
+}
+interface ShadowSeq {
+  kind: 2;
+  start: number;
+  items: Shadow[];
+}
+
+export interface PlainYaml {
+  data: Record<string, unknown>;
+  /** Line and column (1-based) of the value at `path`, or of its key, or of the nearest parent that exists. */
+  at(path: readonly (string | number)[], wantKey: boolean): { line: number; col: number };
+  sourceAt(path: readonly (string | number)[]): string | undefined;
+}
+
+export interface PlainLimits {
+  maxDepth: number;
+  maxTextChars: number;
+  maxExpandedChars: number;
+}
+
+/** Thrown inside the reader when the text leaves the plain subset; caught in readPlainYaml. */
+class Decline {}
+const DECLINE = new Decline();
+
+// The core schema's resolution of plain scalars, taken from the full parser itself so both agree:
+// the first default tag whose test matches (null, bool, int, float), else a string.
+const coreDocument = parseDocument('', { uniqueKeys: false, prettyErrors: false, strict: true, stringKeys: true });
+const scalarTags = coreDocument.schema.tags.filter((t): t is ScalarTag => t.default === true && !t.collection && t.test !== undefined);
+/** Every core-schema test starts with one of these characters; other scalars are strings. */
+const MAY_RESOLVE = /^[-+.0-9~nNtTfF]/;
+
+function resolvePlain(text: string): unknown {
+  if (!MAY_RESOLVE.test(text)) return text;
+  const tag = scalarTags.find((t) => t.test!.test(text));
+  if (!tag) return text;
+  const res = tag.resolve(text, () => {
+    throw DECLINE;
+  }, coreDocument.options);
+  return isScalar(res) ? res.value : res;
+}
+
+/** Characters the reader leaves to the full parser: tabs, CR, other controls, BOM, NEL, Unicode line breaks. */
+const UNUSUAL_CHARACTER = /[\x00-\x09\x0b-\x1f\x7f-\x9f\u2028\u2029\ufeff]/;
+/** Directives, document markers. */
+const DOCUMENT_MARKER = /^(?:---|\.\.\.|%)/m;
+/** Keys as studies write them: ids, `owner.field`. Others go to the full parser. */
+const KEY = /[A-Za-z0-9_][A-Za-z0-9_.\-]*/y;
+const MAX_KEY_CHARS = 1000;
+
+export function readPlainYaml(text: string, limits: PlainLimits): PlainYaml | undefined {
+  if (UNUSUAL_CHARACTER.test(text) || DOCUMENT_MARKER.test(text)) return undefined;
+  let shadow: ShadowMap;
+  let data: Record<string, unknown>;
+  try {
+    const reader = new Reader(text, limits);
+    [data, shadow] = reader.document();
+  } catch (err) {
+    if (err === DECLINE) return undefined;
+    throw err;
+  }
+  let lines: LineCounter | undefined;
+  const posOf = (offset: number): { line: number; col: number } => {
+    if (!lines) {
+      lines = new LineCounter();
+      lines.addNewLine(0);
+      for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) lines.addNewLine(i + 1);
+    }
+    return lines.linePos(offset);
+  };
+  const at = (path: readonly (string | number)[], wantKey: boolean): { line: number; col: number } => {
+    let node: Shadow = shadow;
+    let best = node.start;
+    for (const seg of path) {
+      if (node.kind === 1) {
+        const entry = node.entries.get(String(seg));
+        if (!entry) break;
+        if (wantKey) best = entry.keyStart;
+        node = entry.value;
+        // The same test as the full parser's look-up (by value, not by index).
+        if (!wantKey || seg !== path[path.length - 1]) best = node.start;
+      } else if (node.kind === 2 && typeof seg === 'number') {
+        const item: Shadow | undefined = node.items[seg];
+        if (!item) break;
+        node = item;
+        best = node.start;
+      } else {
+        break;
+      }
+    }
+    return posOf(best);
+  };
+  const sourceAt = (path: readonly (string | number)[]): string | undefined => {
+    let node: Shadow | undefined = shadow;
+    for (const seg of path) {
+      if (node.kind === 1) node = node.entries.get(String(seg))?.value;
+      else if (node.kind === 2 && typeof seg === 'number') node = node.items[seg];
+      else return undefined;
+      if (!node) return undefined;
+    }
+    if (node.kind !== 0) return undefined;
+    const raw = text.slice(node.start, node.end).trim();
+    return /^["']/.test(raw) ? raw.slice(1, -1) : raw;
+  };
+  return { data, at, sourceAt };
+}
+
+class Reader {
+  private i = 0;
+  /** Characters once expanded, counted as yaml.ts counts them (no aliases here, so once). */
+  private size = 0;
+
+  constructor(
+    private readonly text: string,
+    private readonly limits: PlainLimits,
+  ) {}
+
+  document(): [Record<string, unknown>, ShadowMap] {
+    const first = this.skipBlankLines(0);
+    if (first < 0) throw DECLINE;
+    const col = this.column(first);
+    if (!this.startsKey(first)) throw DECLINE;
+    const [data, shadow] = this.blockMap(col, first, 0);
+    if (this.nextLine() >= 0) throw DECLINE;
+    if (this.size > this.limits.maxExpandedChars) throw DECLINE;
+    return [data, shadow];
+  }
+
+  /** Column (0-based) of an offset: no tabs are allowed, so it is the distance from the line start. */
+  private column(offset: number): number {
+    return offset - (this.text.lastIndexOf('\n', offset - 1) + 1);
+  }
+
+  /**
+   * Whether this.i already stands on the first content character of the next line (a nested block
+   * ended there) or at the end; set by skipBlankLines, cleared by anything that reads content.
+   */
+  private ready = false;
+
+  /** The offset of the next content line's first character (this.i set there), or -1 at the end. */
+  private nextLine(): number {
+    if (this.ready) return this.i < this.text.length ? this.i : -1;
+    return this.nextContentLine();
+  }
+
+  /** From this.i, skips the rest of the current line (spaces and a comment only), then blank and comment lines. */
+  private nextContentLine(): number {
+    const t = this.text;
+    let i = this.i;
+    while (t[i] === ' ') i++;
+    if (t[i] === '#') {
+      if (i > 0 && t[i - 1] !== ' ' && t[i - 1] !== '\n') throw DECLINE;
+      i = t.indexOf('\n', i);
+      if (i < 0) i = t.length;
+    }
+    if (i < t.length && t[i] !== '\n') throw DECLINE;
+    return this.skipBlankLines(i + 1);
+  }
+
+  /** From a line start, skips blank and comment lines; returns the first content character's offset, or -1. */
+  private skipBlankLines(from: number): number {
+    const t = this.text;
+    let i = from;
+    this.ready = true;
+    while (i < t.length) {
+      while (t[i] === ' ') i++;
+      const c = t[i];
+      if (c === undefined) break;
+      if (c === '#') {
+        i = t.indexOf('\n', i);
+        if (i < 0) break;
+        i++;
+        continue;
+      }
+      if (c === '\n') {
+        i++;
+        continue;
+      }
+      this.i = i;
+      return i;
+    }
+    this.i = t.length;
+    return -1;
+  }
+
+  /** Whether a key (`name:` then a space or the line's end) starts at `offset`. */
+  private startsKey(offset: number): boolean {
+    KEY.lastIndex = offset;
+    if (!KEY.test(this.text)) return false;
+    const end = KEY.lastIndex;
+    const next = this.text[end + 1];
+    return this.text[end] === ':' && (next === ' ' || next === '\n' || next === undefined);
+  }
+
+  private checkDepth(depth: number): void {
+    if (depth >= this.limits.maxDepth) throw DECLINE;
+  }
+
+  /** A block mapping whose keys sit at column `col`, the first at `start` (this.i). */
+  private blockMap(col: number, start: number, depth: number): [Record<string, unknown>, ShadowMap] {
+    this.checkDepth(depth);
+    const t = this.text;
+    const data: Record<string, unknown> = {};
+    const entries = new Map<string, { keyStart: number; value: Shadow }>();
+    this.size += 1;
+    for (;;) {
+      const keyStart = this.i;
+      this.ready = false;
+      KEY.lastIndex = keyStart;
+      if (!KEY.test(t)) throw DECLINE;
+      const keyEnd = KEY.lastIndex;
+      if (t[keyEnd] !== ':') throw DECLINE;
+      const key = t.slice(keyStart, keyEnd);
+      if (key.length > MAX_KEY_CHARS || key === '__proto__' || entries.has(key)) throw DECLINE;
+      this.size += key.length + 1;
+      this.i = keyEnd + 1;
+      const after = t[this.i];
+      let value: unknown;
+      let shadow: Shadow;
+      if (after === ' ') {
+        while (t[this.i] === ' ') this.i++;
+        const c = t[this.i];
+        if (c === undefined || c === '\n' || c === '#') {
+          [value, shadow] = this.blockValue(col, depth + 1);
+        } else {
+          [value, shadow] = this.inlineValue(col, depth + 1, false);
+        }
+      } else if (after === '\n' || after === undefined) {
+        [value, shadow] = this.blockValue(col, depth + 1);
+      } else {
+        throw DECLINE;
+      }
+      data[key] = value;
+      entries.set(key, { keyStart, value: shadow });
+      const next = this.nextLine();
+      if (next < 0) break;
+      const nextCol = this.column(next);
+      if (nextCol < col) break;
+      if (nextCol > col) throw DECLINE;
+      if (t[next] === '-' && (t[next + 1] === ' ' || t[next + 1] === '\n')) break; // a sequence item at this column ends the mapping (its owner decides)
+    }
+    return [data, { kind: 1, start, entries }];
+  }
+
+  /**
+   * The value of `key:` with nothing after it on the line: a block mapping indented further, or a
+   * block sequence indented further or at the key's column. Anything else (an empty value) declines.
+   */
+  private blockValue(parentCol: number, depth: number): [unknown, Shadow] {
+    const next = this.nextContentLine();
+    if (next < 0) throw DECLINE;
+    const col = this.column(next);
+    const t = this.text;
+    const dash = t[next] === '-' && (t[next + 1] === ' ' || t[next + 1] === '\n');
+    if (dash && col >= parentCol) return this.blockSeq(col, next, depth);
+    if (col > parentCol && this.startsKey(next)) return this.blockMap(col, next, depth);
+    throw DECLINE;
+  }
+
+  /** A block sequence whose dashes sit at column `col`, the first at `start` (this.i). */
+  private blockSeq(col: number, start: number, depth: number): [unknown[], ShadowSeq] {
+    this.checkDepth(depth);
+    const t = this.text;
+    const data: unknown[] = [];
+    const items: Shadow[] = [];
+    this.size += 1;
+    for (;;) {
+      this.ready = false;
+      if (t[this.i] !== '-' || t[this.i + 1] !== ' ') throw DECLINE;
+      this.i += 1;
+      while (t[this.i] === ' ') this.i++;
+      const c = t[this.i];
+      if (c === undefined || c === '\n' || c === '#') throw DECLINE;
+      let value: unknown;
+      let shadow: Shadow;
+      if (this.startsKey(this.i)) {
+        [value, shadow] = this.blockMap(this.column(this.i), this.i, depth + 1);
+      } else {
+        [value, shadow] = this.inlineValue(col, depth + 1, true);
+      }
+      data.push(value);
+      items.push(shadow);
+      const next = this.nextLine();
+      if (next < 0) break;
+      const nextCol = this.column(next);
+      if (nextCol < col) break;
+      if (nextCol > col) throw DECLINE;
+      if (t[next] !== '-') break; // the owner mapping's next key, at the same column
+    }
+    return [data, { kind: 2, start, items }];
+  }
+
+  /** A value that starts on the current line after `key: ` or `- `: a flow collection or a scalar. */
+  private inlineValue(blockCol: number, depth: number, inSeq: boolean): [unknown, Shadow] {
+    const c = this.text[this.i];
+    if (c === '{' || c === '[') return this.flow(blockCol, depth);
+    if (c === '"' || c === "'") return this.quoted();
+    if (inSeq && c === '-' && this.text[this.i + 1] === ' ') throw DECLINE;
+    return this.plain(false);
+  }
+
+  /** A plain scalar on one line; in a flow collection it also ends at `,`, `]`, `}`. */
+  private plain(inFlow: boolean): [unknown, ShadowScalar] {
+    const t = this.text;
+    const start = this.i;
+    const c = t[start]!;
+    // Indicators that start something other than a plain scalar, or that the full parser should judge.
+    if ('?:,[]{}#&*!|>\'"%@`'.includes(c)) throw DECLINE;
+    if (c === '-' && (t[start + 1] === ' ' || t[start + 1] === '\n' || t[start + 1] === undefined)) throw DECLINE;
+    let i = start;
+    let end = start;
+    for (; i < t.length; i++) {
+      const ch = t[i]!;
+      if (ch === '\n') break;
+      if (ch === ':') throw DECLINE;
+      if (ch === '#' && t[i - 1] === ' ') break;
+      if (inFlow && (ch === ',' || ch === ']' || ch === '}' || ch === '[' || ch === '{')) {
+        if (ch === '[' || ch === '{') throw DECLINE;
+        break;
+      }
+      if (ch !== ' ') end = i + 1;
+    }
+    this.i = end;
+    const written = t.slice(start, end);
+    const value = resolvePlain(written);
+    this.sizeOfScalar(value);
+    return [value, { kind: 0, start, end }];
+  }
+
+  /** A quoted scalar on one line: double quotes without escapes, single quotes with '' for a quote. */
+  private quoted(): [string, ShadowScalar] {
+    const t = this.text;
+    const start = this.i;
+    const q = t[start];
+    let value: string;
+    let end: number;
+    if (q === '"') {
+      const close = t.indexOf('"', start + 1);
+      if (close < 0) throw DECLINE;
+      value = t.slice(start + 1, close);
+      if (value.includes('\\') || value.includes('\n')) throw DECLINE;
+      end = close + 1;
+    } else {
+      let j = start + 1;
+      let out = '';
+      for (;;) {
+        const close = t.indexOf("'", j);
+        if (close < 0) throw DECLINE;
+        out += t.slice(j, close);
+        if (t[close + 1] === "'") {
+          out += "'";
+          j = close + 2;
+          continue;
+        }
+        end = close + 1;
+        break;
+      }
+      if (out.includes('\n')) throw DECLINE;
+      value = out;
+    }
+    this.i = end;
+    this.sizeOfScalar(value);
+    return [value, { kind: 0, start, end }];
+  }
+
+  private sizeOfScalar(value: unknown): void {
+    if (typeof value === 'string') {
+      if (value.length > this.limits.maxTextChars) throw DECLINE;
+      this.size += value.length + 1;
+    } else this.size += 8;
+  }
+
+  /**
+   * Skips spaces, line breaks and comments inside a flow collection. A line inside one must be
+   * indented past the block it belongs to (`blockCol`), as the full parser requires.
+   */
+  private flowSpace(blockCol: number): void {
+    const t = this.text;
+    for (;;) {
+      const c = t[this.i];
+      if (c === ' ') this.i++;
+      else if (c === '\n') {
+        this.i++;
+        let j = this.i;
+        while (t[j] === ' ') j++;
+        if (t[j] !== '\n' && t[j] !== '#' && j - this.i <= blockCol) throw DECLINE;
+        this.i = j;
+      } else if (c === '#') {
+        if (t[this.i - 1] !== ' ' && t[this.i - 1] !== '\n') throw DECLINE;
+        const nl = t.indexOf('\n', this.i);
+        if (nl < 0) throw DECLINE;
+        this.i = nl;
+      } else return;
+    }
+  }
+
+  private flow(blockCol: number, depth: number): [unknown, Shadow] {
+    this.checkDepth(depth);
+    const t = this.text;
+    const start = this.i;
+    const isMap = t[start] === '{';
+    const close = isMap ? '}' : ']';
+    this.i++;
+    this.size += 1;
+    const data: unknown = isMap ? {} : [];
+    const entries = new Map<string, { keyStart: number; value: Shadow }>();
+    const items: Shadow[] = [];
+    this.flowSpace(blockCol);
+    while (t[this.i] !== close) {
+      let keyStart = -1;
+      let key = '';
+      if (isMap) {
+        keyStart = this.i;
+        KEY.lastIndex = keyStart;
+        if (!KEY.test(t)) throw DECLINE;
+        const keyEnd = KEY.lastIndex;
+        key = t.slice(keyStart, keyEnd);
+        if (t[keyEnd] !== ':' || (t[keyEnd + 1] !== ' ' && t[keyEnd + 1] !== '\n')) throw DECLINE;
+        if (key.length > MAX_KEY_CHARS || key === '__proto__' || entries.has(key)) throw DECLINE;
+        this.size += key.length + 1;
+        this.i = keyEnd + 1;
+        this.flowSpace(blockCol);
+      }
+      const c = t[this.i];
+      let value: unknown;
+      let shadow: Shadow;
+      if (c === '{' || c === '[') [value, shadow] = this.flow(blockCol, depth + 1);
+      else if (c === '"' || c === "'") [value, shadow] = this.quoted();
+      else if (c === undefined || c === ',' || c === close || c === '\n') throw DECLINE;
+      else [value, shadow] = this.plain(true);
+      if (isMap) {
+        (data as Record<string, unknown>)[key] = value;
+        entries.set(key, { keyStart, value: shadow });
+      } else {
+        (data as unknown[]).push(value);
+        items.push(shadow);
+      }
+      this.flowSpace(blockCol);
+      if (t[this.i] === ',') {
+        this.i++;
+        this.flowSpace(blockCol);
+      } else if (t[this.i] !== close) throw DECLINE;
+    }
+    this.i++;
+    const shadow: Shadow = isMap ? { kind: 1, start, entries } : { kind: 2, start, items };
+    return [data, shadow];
+  }
+}
