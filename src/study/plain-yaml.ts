@@ -12,30 +12,31 @@
  * quoted one). test/study/plain-yaml.test.ts compares data and every position with the full
  * parser on generated and real study files.
  */
-import { isScalar, LineCounter, parseDocument, type ScalarTag } from 'yaml';
+import { isScalar, parseDocument, type ScalarTag } from 'yaml';
+import type { Pos } from './types.js';
 
-/** What the reader keeps of each value to locate it: its start, and for a scalar its end. */
-type Shadow = ShadowScalar | ShadowMap | ShadowSeq;
-interface ShadowScalar {
-  kind: 0;
+/**
+ * What the reader keeps of each value to locate it: where it starts, where a scalar ends, where the
+ * key that names it starts (-1 in a sequence), and its entries or items. One shape for all three
+ * kinds keeps the look-ups monomorphic.
+ */
+interface Shadow {
+  kind: 0 | 1 | 2; // scalar, mapping, sequence
   start: number;
   end: number;
+  keyStart: number;
+  entries: Map<string, Shadow> | undefined;
+  items: Shadow[] | undefined;
 }
-interface ShadowMap {
-  kind: 1;
-  start: number;
-  entries: Map<string, { keyStart: number; value: Shadow }>;
-}
-interface ShadowSeq {
-  kind: 2;
-  start: number;
-  items: Shadow[];
+
+function shadowOf(kind: 0 | 1 | 2, start: number, end: number, entries?: Map<string, Shadow>, items?: Shadow[]): Shadow {
+  return { kind, start, end, keyStart: -1, entries, items };
 }
 
 export interface PlainYaml {
   data: Record<string, unknown>;
-  /** Line and column (1-based) of the value at `path`, or of its key, or of the nearest parent that exists. */
-  at(path: readonly (string | number)[], wantKey: boolean): { line: number; col: number };
+  /** Position of the value at `path` (or of its key), or of the nearest parent that exists. */
+  at(path: readonly (string | number)[], wantKey: boolean): Pos;
   sourceAt(path: readonly (string | number)[]): string | undefined;
 }
 
@@ -73,40 +74,51 @@ const DOCUMENT_MARKER = /^(?:---|\.\.\.|%)/m;
 /** Keys as studies write them: ids, `owner.field`. Others go to the full parser. */
 const KEY = /[A-Za-z0-9_][A-Za-z0-9_.\-]*/y;
 const MAX_KEY_CHARS = 1000;
+/** The run of characters a plain scalar may take before what ends or stops it (see Reader.plain). */
+const BLOCK_PLAIN = /[^\n:#]*/y;
+const FLOW_PLAIN = /[^\n:#,[\]{}]*/y;
 
-export function readPlainYaml(text: string, limits: PlainLimits): PlainYaml | undefined {
+export function readPlainYaml(file: string, text: string, limits: PlainLimits): PlainYaml | undefined {
   if (UNUSUAL_CHARACTER.test(text) || DOCUMENT_MARKER.test(text)) return undefined;
-  let shadow: ShadowMap;
+  let shadow: Shadow;
   let data: Record<string, unknown>;
   try {
     const reader = new Reader(text, limits);
-    [data, shadow] = reader.document();
+    data = reader.document();
+    shadow = reader.shadow;
   } catch (err) {
     if (err === DECLINE) return undefined;
     throw err;
   }
-  let lines: LineCounter | undefined;
-  const posOf = (offset: number): { line: number; col: number } => {
-    if (!lines) {
-      lines = new LineCounter();
-      lines.addNewLine(0);
-      for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) lines.addNewLine(i + 1);
+  let lineStarts: number[] | undefined;
+  // Line and column (1-based, in UTF-16 units) as the full parser's LineCounter gives them.
+  const posOf = (offset: number): Pos => {
+    if (!lineStarts) {
+      lineStarts = [0];
+      for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) lineStarts.push(i + 1);
     }
-    return lines.linePos(offset);
+    let low = 0;
+    let high = lineStarts.length - 1;
+    while (low < high) {
+      const mid = (low + high + 1) >> 1;
+      if (lineStarts[mid]! <= offset) low = mid;
+      else high = mid - 1;
+    }
+    return { file, line: low + 1, col: offset - lineStarts[low]! + 1 };
   };
-  const at = (path: readonly (string | number)[], wantKey: boolean): { line: number; col: number } => {
+  const at = (path: readonly (string | number)[], wantKey: boolean): Pos => {
     let node: Shadow = shadow;
     let best = node.start;
     for (const seg of path) {
       if (node.kind === 1) {
-        const entry = node.entries.get(String(seg));
+        const entry = node.entries!.get(String(seg));
         if (!entry) break;
         if (wantKey) best = entry.keyStart;
-        node = entry.value;
+        node = entry;
         // The same test as the full parser's look-up (by value, not by index).
         if (!wantKey || seg !== path[path.length - 1]) best = node.start;
       } else if (node.kind === 2 && typeof seg === 'number') {
-        const item: Shadow | undefined = node.items[seg];
+        const item: Shadow | undefined = node.items![seg];
         if (!item) break;
         node = item;
         best = node.start;
@@ -119,8 +131,8 @@ export function readPlainYaml(text: string, limits: PlainLimits): PlainYaml | un
   const sourceAt = (path: readonly (string | number)[]): string | undefined => {
     let node: Shadow | undefined = shadow;
     for (const seg of path) {
-      if (node.kind === 1) node = node.entries.get(String(seg))?.value;
-      else if (node.kind === 2 && typeof seg === 'number') node = node.items[seg];
+      if (node.kind === 1) node = node.entries!.get(String(seg));
+      else if (node.kind === 2 && typeof seg === 'number') node = node.items![seg];
       else return undefined;
       if (!node) return undefined;
     }
@@ -133,6 +145,8 @@ export function readPlainYaml(text: string, limits: PlainLimits): PlainYaml | un
 
 class Reader {
   private i = 0;
+  /** The shadow of the value the last read returned. */
+  shadow: Shadow = shadowOf(0, 0, 0);
   /** Characters once expanded, counted as yaml.ts counts them (no aliases here, so once). */
   private size = 0;
 
@@ -141,15 +155,15 @@ class Reader {
     private readonly limits: PlainLimits,
   ) {}
 
-  document(): [Record<string, unknown>, ShadowMap] {
+  document(): Record<string, unknown> {
     const first = this.skipBlankLines(0);
     if (first < 0) throw DECLINE;
     const col = this.column(first);
     if (!this.startsKey(first)) throw DECLINE;
-    const [data, shadow] = this.blockMap(col, first, 0);
+    const data = this.blockMap(col, first, 0);
     if (this.nextLine() >= 0) throw DECLINE;
     if (this.size > this.limits.maxExpandedChars) throw DECLINE;
-    return [data, shadow];
+    return data;
   }
 
   /** Column (0-based) of an offset: no tabs are allowed, so it is the distance from the line start. */
@@ -223,11 +237,11 @@ class Reader {
   }
 
   /** A block mapping whose keys sit at column `col`, the first at `start` (this.i). */
-  private blockMap(col: number, start: number, depth: number): [Record<string, unknown>, ShadowMap] {
+  private blockMap(col: number, start: number, depth: number): Record<string, unknown> {
     this.checkDepth(depth);
     const t = this.text;
     const data: Record<string, unknown> = {};
-    const entries = new Map<string, { keyStart: number; value: Shadow }>();
+    const entries = new Map<string, Shadow>();
     this.size += 1;
     for (;;) {
       const keyStart = this.i;
@@ -242,22 +256,18 @@ class Reader {
       this.i = keyEnd + 1;
       const after = t[this.i];
       let value: unknown;
-      let shadow: Shadow;
       if (after === ' ') {
         while (t[this.i] === ' ') this.i++;
         const c = t[this.i];
-        if (c === undefined || c === '\n' || c === '#') {
-          [value, shadow] = this.blockValue(col, depth + 1);
-        } else {
-          [value, shadow] = this.inlineValue(col, depth + 1, false);
-        }
+        value = c === undefined || c === '\n' || c === '#' ? this.blockValue(col, depth + 1) : this.inlineValue(col, depth + 1, false);
       } else if (after === '\n' || after === undefined) {
-        [value, shadow] = this.blockValue(col, depth + 1);
+        value = this.blockValue(col, depth + 1);
       } else {
         throw DECLINE;
       }
       data[key] = value;
-      entries.set(key, { keyStart, value: shadow });
+      this.shadow.keyStart = keyStart;
+      entries.set(key, this.shadow);
       const next = this.nextLine();
       if (next < 0) break;
       const nextCol = this.column(next);
@@ -265,14 +275,15 @@ class Reader {
       if (nextCol > col) throw DECLINE;
       if (t[next] === '-' && (t[next + 1] === ' ' || t[next + 1] === '\n')) break; // a sequence item at this column ends the mapping (its owner decides)
     }
-    return [data, { kind: 1, start, entries }];
+    this.shadow = shadowOf(1, start, start, entries);
+    return data;
   }
 
   /**
    * The value of `key:` with nothing after it on the line: a block mapping indented further, or a
    * block sequence indented further or at the key's column. Anything else (an empty value) declines.
    */
-  private blockValue(parentCol: number, depth: number): [unknown, Shadow] {
+  private blockValue(parentCol: number, depth: number): unknown {
     const next = this.nextContentLine();
     if (next < 0) throw DECLINE;
     const col = this.column(next);
@@ -284,7 +295,7 @@ class Reader {
   }
 
   /** A block sequence whose dashes sit at column `col`, the first at `start` (this.i). */
-  private blockSeq(col: number, start: number, depth: number): [unknown[], ShadowSeq] {
+  private blockSeq(col: number, start: number, depth: number): unknown[] {
     this.checkDepth(depth);
     const t = this.text;
     const data: unknown[] = [];
@@ -297,15 +308,8 @@ class Reader {
       while (t[this.i] === ' ') this.i++;
       const c = t[this.i];
       if (c === undefined || c === '\n' || c === '#') throw DECLINE;
-      let value: unknown;
-      let shadow: Shadow;
-      if (this.startsKey(this.i)) {
-        [value, shadow] = this.blockMap(this.column(this.i), this.i, depth + 1);
-      } else {
-        [value, shadow] = this.inlineValue(col, depth + 1, true);
-      }
-      data.push(value);
-      items.push(shadow);
+      data.push(this.startsKey(this.i) ? this.blockMap(this.column(this.i), this.i, depth + 1) : this.inlineValue(col, depth + 1, true));
+      items.push(this.shadow);
       const next = this.nextLine();
       if (next < 0) break;
       const nextCol = this.column(next);
@@ -313,11 +317,12 @@ class Reader {
       if (nextCol > col) throw DECLINE;
       if (t[next] !== '-') break; // the owner mapping's next key, at the same column
     }
-    return [data, { kind: 2, start, items }];
+    this.shadow = shadowOf(2, start, start, undefined, items);
+    return data;
   }
 
   /** A value that starts on the current line after `key: ` or `- `: a flow collection or a scalar. */
-  private inlineValue(blockCol: number, depth: number, inSeq: boolean): [unknown, Shadow] {
+  private inlineValue(blockCol: number, depth: number, inSeq: boolean): unknown {
     const c = this.text[this.i];
     if (c === '{' || c === '[') return this.flow(blockCol, depth);
     if (c === '"' || c === "'") return this.quoted();
@@ -326,35 +331,38 @@ class Reader {
   }
 
   /** A plain scalar on one line; in a flow collection it also ends at `,`, `]`, `}`. */
-  private plain(inFlow: boolean): [unknown, ShadowScalar] {
+  private plain(inFlow: boolean): unknown {
     const t = this.text;
     const start = this.i;
     const c = t[start]!;
     // Indicators that start something other than a plain scalar, or that the full parser should judge.
     if ('?:,[]{}#&*!|>\'"%@`'.includes(c)) throw DECLINE;
     if (c === '-' && (t[start + 1] === ' ' || t[start + 1] === '\n' || t[start + 1] === undefined)) throw DECLINE;
-    let i = start;
+    // Up to the line's end, a ':' (declined: the full parser decides what it means) or, in a flow
+    // collection, a flow indicator; a ' #' before that starts a comment.
+    const stop = inFlow ? FLOW_PLAIN : BLOCK_PLAIN;
     let end = start;
-    for (; i < t.length; i++) {
-      const ch = t[i]!;
-      if (ch === '\n') break;
-      if (ch === ':') throw DECLINE;
-      if (ch === '#' && t[i - 1] === ' ') break;
-      if (inFlow && (ch === ',' || ch === ']' || ch === '}' || ch === '[' || ch === '{')) {
-        if (ch === '[' || ch === '{') throw DECLINE;
-        break;
-      }
-      if (ch !== ' ') end = i + 1;
+    for (;;) {
+      stop.lastIndex = end;
+      stop.test(t);
+      end = stop.lastIndex;
+      if (t[end] !== '#') break;
+      if (t[end - 1] === ' ') break; // a comment
+      end++; // '#' inside a word belongs to the scalar
     }
+    const ch = t[end];
+    if (ch === ':' || ch === '[' || ch === '{') throw DECLINE;
+    while (end > start && t.charCodeAt(end - 1) === 32) end--;
     this.i = end;
     const written = t.slice(start, end);
     const value = resolvePlain(written);
     this.sizeOfScalar(value);
-    return [value, { kind: 0, start, end }];
+    this.shadow = shadowOf(0, start, end);
+    return value;
   }
 
   /** A quoted scalar on one line: double quotes without escapes, single quotes with '' for a quote. */
-  private quoted(): [string, ShadowScalar] {
+  private quoted(): string {
     const t = this.text;
     const start = this.i;
     const q = t[start];
@@ -386,7 +394,8 @@ class Reader {
     }
     this.i = end;
     this.sizeOfScalar(value);
-    return [value, { kind: 0, start, end }];
+    this.shadow = shadowOf(0, start, end);
+    return value;
   }
 
   private sizeOfScalar(value: unknown): void {
@@ -420,7 +429,7 @@ class Reader {
     }
   }
 
-  private flow(blockCol: number, depth: number): [unknown, Shadow] {
+  private flow(blockCol: number, depth: number): unknown {
     this.checkDepth(depth);
     const t = this.text;
     const start = this.i;
@@ -429,8 +438,8 @@ class Reader {
     this.i++;
     this.size += 1;
     const data: unknown = isMap ? {} : [];
-    const entries = new Map<string, { keyStart: number; value: Shadow }>();
-    const items: Shadow[] = [];
+    const entries = isMap ? new Map<string, Shadow>() : undefined;
+    const items: Shadow[] | undefined = isMap ? undefined : [];
     this.flowSpace(blockCol);
     while (t[this.i] !== close) {
       let keyStart = -1;
@@ -442,24 +451,24 @@ class Reader {
         const keyEnd = KEY.lastIndex;
         key = t.slice(keyStart, keyEnd);
         if (t[keyEnd] !== ':' || (t[keyEnd + 1] !== ' ' && t[keyEnd + 1] !== '\n')) throw DECLINE;
-        if (key.length > MAX_KEY_CHARS || key === '__proto__' || entries.has(key)) throw DECLINE;
+        if (key.length > MAX_KEY_CHARS || key === '__proto__' || entries!.has(key)) throw DECLINE;
         this.size += key.length + 1;
         this.i = keyEnd + 1;
         this.flowSpace(blockCol);
       }
       const c = t[this.i];
       let value: unknown;
-      let shadow: Shadow;
-      if (c === '{' || c === '[') [value, shadow] = this.flow(blockCol, depth + 1);
-      else if (c === '"' || c === "'") [value, shadow] = this.quoted();
+      if (c === '{' || c === '[') value = this.flow(blockCol, depth + 1);
+      else if (c === '"' || c === "'") value = this.quoted();
       else if (c === undefined || c === ',' || c === close || c === '\n') throw DECLINE;
-      else [value, shadow] = this.plain(true);
+      else value = this.plain(true);
       if (isMap) {
         (data as Record<string, unknown>)[key] = value;
-        entries.set(key, { keyStart, value: shadow });
+        this.shadow.keyStart = keyStart;
+        entries!.set(key, this.shadow);
       } else {
         (data as unknown[]).push(value);
-        items.push(shadow);
+        items!.push(this.shadow);
       }
       this.flowSpace(blockCol);
       if (t[this.i] === ',') {
@@ -468,7 +477,7 @@ class Reader {
       } else if (t[this.i] !== close) throw DECLINE;
     }
     this.i++;
-    const shadow: Shadow = isMap ? { kind: 1, start, entries } : { kind: 2, start, items };
-    return [data, shadow];
+    this.shadow = shadowOf(isMap ? 1 : 2, start, start, entries, items);
+    return data;
   }
 }

@@ -36,11 +36,8 @@ export const MAX_TEXT_CHARS = 64 * 1024;
 
 export function parseYamlFile(file: string, text: string): YamlFile {
   // Most study files are plain YAML: read them quickly; anything else takes the full parser below.
-  const plain = readPlainYaml(text, { maxDepth: MAX_DEPTH, maxTextChars: MAX_TEXT_CHARS, maxExpandedChars: MAX_EXPANDED_CHARS });
-  if (plain) {
-    const where = (path: readonly PathSegment[], wantKey: boolean): Pos => ({ file, ...plain.at(path, wantKey) });
-    return { file, text, data: plain.data, at: (path) => where(path, false), keyAt: (path) => where(path, true), sourceAt: plain.sourceAt };
-  }
+  const plain = readPlainYaml(file, text, { maxDepth: MAX_DEPTH, maxTextChars: MAX_TEXT_CHARS, maxExpandedChars: MAX_EXPANDED_CHARS });
+  if (plain) return { file, text, data: plain.data, at: (path) => plain.at(path, false), keyAt: (path) => plain.at(path, true), sourceAt: plain.sourceAt };
   return parseYamlDocument(file, text);
 }
 
