@@ -337,7 +337,8 @@ class Reader {
     const c = t[start]!;
     // Indicators that start something other than a plain scalar, or that the full parser should judge.
     if ('?:,[]{}#&*!|>\'"%@`'.includes(c)) throw DECLINE;
-    if (c === '-' && (t[start + 1] === ' ' || t[start + 1] === '\n' || t[start + 1] === undefined)) throw DECLINE;
+    // '-' starts a plain scalar only when a character that could continue one follows (`-5`, not `- ` or `-]`).
+    if (c === '-' && ' \n,[]{}#'.includes(t[start + 1] ?? ' ')) throw DECLINE;
     // Up to the line's end, a ':' (declined: the full parser decides what it means) or, in a flow
     // collection, a flow indicator; a ' #' before that starts a comment.
     const stop = inFlow ? FLOW_PLAIN : BLOCK_PLAIN;
