@@ -90,7 +90,8 @@ describe('validators generated at build time', () => {
   });
 
   it('are what the built command uses, and it refuses a misspelt key with the message it always gave', async () => {
-    const schema = (await import('../../dist/study/schema.js')) as { validatorOrigin(): string };
+    const built: string = '../../dist/study/schema.js';
+    const schema = (await import(built)) as { validatorOrigin(): string };
     expect(schema.validatorOrigin()).toBe('generated');
     const dir = join(tempDir(), 'study');
     cpSync('example-study', dir, { recursive: true });

@@ -79,7 +79,7 @@ describe('positions in a 2,000-event study', () => {
     const study = readStudy(w.dir);
     expect(study.events).toHaveLength(EVENTS);
     const last = study.gates.find((g) => g.id === `g${EVENTS / PER_GATE}`)!;
-    expect(last.inputsAt[PER_GATE - 1]).toEqual({ file: 'logic.yaml', ...place(w.logic, `g${EVENTS / PER_GATE}:`, `e${EVENTS},`.slice(0, -1)) });
+    expect(last.inputsAt?.[PER_GATE - 1]).toEqual({ file: 'logic.yaml', ...place(w.logic, `g${EVENTS / PER_GATE}:`, `e${EVENTS},`.slice(0, -1)) });
     const e1999 = study.parameters.find((p) => p.key === 'e1999.probability')!;
     expect(e1999.at).toEqual({ file: 'events.yaml', ...place(w.events, 'e1999:', '{ value') });
   });
