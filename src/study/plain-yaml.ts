@@ -3,7 +3,7 @@
  * flow mappings and sequences, plain and simply quoted scalars, comments. It gives the same data
  * and the same positions as the full parser (yaml.ts), about ten times faster, and declines
  * (returns undefined) on anything else: anchors, aliases, tags, block scalars, multi-line plain
- * scalars, escapes, tabs, empty values, duplicate keys, unusual keys, documents markers, a text
+ * scalars, escapes, tabs, empty values, duplicate keys, unusual keys, document markers, a text
  * over the limits — and on anything that could be an error. A declined file goes through the full
  * parser, so every message about a file stays the full parser's and our checks'.
  *
@@ -12,7 +12,6 @@
  * quoted one). test/study/plain-yaml.test.ts compares data and every position with the full
  * parser on generated and real study files.
  */
-import { isScalar, parseDocument, type ScalarTag } from 'yaml';
 import type { Pos } from './types.js';
 
 /**
@@ -50,23 +49,27 @@ export interface PlainLimits {
 class Decline {}
 const DECLINE = new Decline();
 
-// The core schema's resolution of plain scalars, taken from the full parser itself so both agree:
-// the first default tag whose test matches (null, bool, int, float), else a string.
-const coreDocument = parseDocument('', { uniqueKeys: false, prettyErrors: false, strict: true, stringKeys: true });
-const scalarTags = coreDocument.schema.tags.filter((t): t is ScalarTag => t.default === true && !t.collection && t.test !== undefined);
-/** Every core-schema test starts with one of these characters; other scalars are strings. */
+/** Every core-schema pattern starts with one of these characters; other scalars are strings. */
 const MAY_RESOLVE = /^[-+.0-9~nNtTfF]/;
 
+/**
+ * A plain scalar by the YAML 1.2 core schema (YAML 1.2.2 section 10.3.2; the patterns and their
+ * order are the full parser's): null, bool, int (decimal, 0o octal, 0x hex), float (.inf, .nan,
+ * exponent, decimal point); anything else is a string. Written here rather than taken from the
+ * `yaml` package so a study of plain files never loads the full parser; test/study/plain-yaml.test.ts
+ * holds the two to the same values.
+ */
 function resolvePlain(text: string): unknown {
   if (!MAY_RESOLVE.test(text)) return text;
-  const tag = scalarTags.find((t) => t.test!.test(text));
-  if (!tag) return text;
-  const res = tag.resolve(text, () => {
-    throw DECLINE;
-  }, coreDocument.options);
-  return isScalar(res) ? res.value : res;
+  if (/^(?:~|[Nn]ull|NULL)?$/.test(text)) return null;
+  if (/^(?:[Tt]rue|TRUE|[Ff]alse|FALSE)$/.test(text)) return text[0] === 't' || text[0] === 'T';
+  if (/^0o[0-7]+$/.test(text)) return parseInt(text.substring(2), 8);
+  if (/^[-+]?[0-9]+$/.test(text)) return parseInt(text, 10);
+  if (/^0x[0-9a-fA-F]+$/.test(text)) return parseInt(text.substring(2), 16);
+  if (/^(?:[-+]?\.(?:inf|Inf|INF)|\.nan|\.NaN|\.NAN)$/.test(text)) return text.slice(-3).toLowerCase() === 'nan' ? NaN : text[0] === '-' ? -Infinity : Infinity;
+  if (/^[-+]?(?:\.[0-9]+|[0-9]+(?:\.[0-9]*)?)[eE][-+]?[0-9]+$/.test(text) || /^[-+]?(?:\.[0-9]+|[0-9]+\.[0-9]*)$/.test(text)) return parseFloat(text);
+  return text;
 }
-
 /** Characters the reader leaves to the full parser: tabs, CR, other controls, BOM, NEL, Unicode line breaks. */
 const UNUSUAL_CHARACTER = /[\x00-\x09\x0b-\x1f\x7f-\x9f\u2028\u2029\ufeff]/;
 /** Directives, document markers. */

@@ -2,7 +2,8 @@
  * YAML with positions. A study file is parsed once into a document that keeps every node's place,
  * so any later check can point at file, line and column by the path of the value it rejects.
  */
-import { isAlias, isMap, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type ErrorCode, type Node, type Pair, type YAMLMap } from 'yaml';
+import { createRequire } from 'node:module';
+import type { Document, ErrorCode, Node, Pair, YAMLMap } from 'yaml';
 import { StudyError } from './errors.js';
 import { readPlainYaml } from './plain-yaml.js';
 import type { Pos } from './types.js';
@@ -41,8 +42,18 @@ export function parseYamlFile(file: string, text: string): YamlFile {
   return parseYamlDocument(file, text);
 }
 
+/**
+ * The `yaml` package, loaded the first time a file needs the full parser (a study whose files are
+ * all plain never loads it). It is CommonJS under Node, so `require` keeps reading synchronous.
+ */
+let yamlPackage: typeof import('yaml') | undefined;
+function fullParser(): typeof import('yaml') {
+  return (yamlPackage ??= createRequire(import.meta.url)('yaml') as typeof import('yaml'));
+}
+
 /** The full parser: any YAML, every check, the parser's own errors explained. */
 export function parseYamlDocument(file: string, text: string): YamlFile {
+  const { isMap, isScalar, isSeq, LineCounter, parseDocument, visit } = fullParser();
   const lineCounter = new LineCounter();
   // stringKeys: a key that is a list or a mapping is an error here, not a warning printed by the parser later.
   // uniqueKeys is off because the parser compares each key with every earlier one (quadratic in the
@@ -135,6 +146,7 @@ function isNodeWithRange(node: unknown): node is Node & { range: [number, number
 }
 
 function checkDepth(doc: Document, posOf: (offset: number) => Pos): void {
+  const { isMap, isSeq } = fullParser();
   const stack: { node: unknown; depth: number }[] = [{ node: doc.contents, depth: 0 }];
   while (stack.length > 0) {
     const { node, depth } = stack.pop()!;
@@ -162,6 +174,7 @@ function checkTags(doc: Document, posOf: (offset: number) => Pos): void {
 
 /** Each key once per mapping, checked with a set per mapping (linear). */
 function checkDuplicateKeys(doc: Document, posOf: (offset: number) => Pos): void {
+  const { isMap, isScalar, isSeq } = fullParser();
   const stack: unknown[] = [doc.contents];
   while (stack.length > 0) {
     const node = stack.pop();
@@ -191,6 +204,7 @@ function checkDuplicateKeys(doc: Document, posOf: (offset: number) => Pos): void
  * (which precedes it); the count limit alone lets one huge scalar be repeated into gigabytes.
  */
 function checkExpandedSize(doc: Document, posOf: (offset: number) => Pos): void {
+  const { isAlias, isMap, isScalar, isSeq } = fullParser();
   const sizes = new Map<unknown, number>();
   const anchors = new Map<string, unknown>();
   let firstAlias: Pos | undefined;

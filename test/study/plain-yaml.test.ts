@@ -84,7 +84,9 @@ describe('quick reader of plain YAML', () => {
       ['no', 'no'], ['on', 'on'], ['yes', 'yes'], ['0x1F', 31], ['0o17', 15], ['017', 17], ['1_000', '1_000'],
       ['2026-06-30', '2026-06-30'], ['.inf', Infinity], ['-.inf', -Infinity], ['1e3', 1000], ['2e-3', 0.002], ['+1', 1],
       ['-.5', -0.5], ['1.', 1], ['~', null], ['null', null], ['NULL', null], ['True', true], ['FALSE', false], ['tRUE', 'tRUE'],
-      ['2e-3 /year', '2e-3 /year'], ['75 years', '75 years'],
+      ['2e-3 /year', '2e-3 /year'], ['75 years', '75 years'], ['0o8', '0o8'], ['0x', '0x'], ['+0x1F', '+0x1F'], ['-0', -0],
+      ['+.inf', Infinity], ['.NaN', NaN], ['.Inf', Infinity], ['Null', null], ['nULL', 'nULL'], ['00', 0], ['1.5e+3', 1500],
+      ['.5e1', 5], ['1e', '1e'], ['99999999999999999999', 1e20], ['1_0', '1_0'], ['0.', 0], ['.', '.'],
     ];
     for (const [written, expected] of cases) {
       const text = `a: ${written}\nb: [${written}]\nc: { d: ${written} }\n`;
@@ -92,6 +94,7 @@ describe('quick reader of plain YAML', () => {
       expect(disagreements(text), written).toEqual([]);
     }
     expect(Number.isNaN((quick('a: .nan\n')!.data as { a: number }).a)).toBe(true);
+    expect(Object.is((quick('a: -0\n')!.data as { a: number }).a, -0)).toBe(true);
   });
 
   it('declines what it does not read itself, and the full parser then reports it as before', () => {
@@ -120,7 +123,7 @@ describe('quick reader of plain YAML', () => {
 
   // RUNS=20000 SEED=n npx vitest run test/study/plain-yaml.test.ts searches longer (prints how many texts were read quickly).
   it('agrees with the full parser on generated study-like texts and on their mutations', () => {
-    const scalar = fc.constantFrom('1', '2e-3', '0.004', '75 years', '2e-3 /year', 'no', 'on', '0x1F', '~', 'True', '2026-06-30', 'x#y', 'a b', '"q"', "'it''s'", '"a # b"', '-5', '.5', 'p1-feed.2', 'é');
+    const scalar = fc.constantFrom('1', '2e-3', '0.004', '75 years', '2e-3 /year', 'no', 'on', '0x1F', '~', 'True', '2026-06-30', 'x#y', 'a b', '"q"', "'it''s'", '"a # b"', '-5', '.5', 'p1-feed.2', 'é', '0o8', '+.inf', '.NaN', '-0', '00', '1.5e+3', 'Null', 'nULL', '0x', '+0x1F', '99999999999999999999', '.');
     const key = fc.constantFrom('a', 'motor-1', 'p.value', 'g_2', '1', 'true', 'x.y-z');
     const comment = fc.constantFrom('', ' # note', '  #c');
     type Tree = string | { map: [string, Tree][] } | { seq: Tree[] };
