@@ -42,6 +42,7 @@ const arg = (name: string): string | undefined => {
 const bin = arg('--bin') ?? join(here, '..', 'bin', 'faultbook.js');
 const maxNodes = arg('--max-nodes') ? Number(arg('--max-nodes')) : undefined;
 const only = arg('--only');
+const layout = arg('--layout') === 'striped' ? 'striped' : 'blocks';
 
 interface Timed {
   ok: boolean;
@@ -74,7 +75,7 @@ function main(): void {
   }
   const outDir = join(here, 'out');
   const buddy = prepareBuddy(outDir);
-  console.log(`gate family (invented): faultbook ${bin} run --format json, whole process, vs BuDDy whole process`);
+  console.log(`gate family (invented, controllers in ${layout}): faultbook ${bin} run --format json, whole process, vs BuDDy whole process`);
   if (typeof buddy !== 'string') console.log(`BuDDy comparison skipped: ${buddy.skipped}`);
   console.log(
     [pad('M/K', 7), pad('events', 7), pad('top nodes', 10), pad('BuDDy s', 8), pad('cpu', 5), pad('MB', 6), pad('faultbook s', 12), pad('cpu', 5), pad('MB', 6), pad('ratio', 6), pad('P(top)', 22), pad('rel. diff', 10)].join(' '),
@@ -84,7 +85,7 @@ function main(): void {
     if (only && String(M) !== only) continue;
     const dir = mkdtempSync(join(tmpdir(), 'faultbook-bench-family-'));
     try {
-      for (const [name, text] of Object.entries(gateFamilyStudy({ gates: M, atLeast: K, ...(maxNodes ? { maxNodes } : {}) }))) writeFileSync(join(dir, name), text);
+      for (const [name, text] of Object.entries(gateFamilyStudy({ gates: M, atLeast: K, layout, ...(maxNodes ? { maxNodes } : {}) }))) writeFileSync(join(dir, name), text);
       const study = readStudy(dir);
       const model = buildLogicModel(study);
       const p = evaluateEvents(study, baseCase()).probability;

@@ -14,6 +14,13 @@ export interface GateFamilyOptions {
   atLeast: number;
   /** settings.max_nodes to write; absent = the study's default. */
   maxNodes?: number;
+  /**
+   * How gates share controllers: `blocks` (default) gives each controller ten neighbouring gates,
+   * as the power groups do; `striped` deals the gates out to the controllers in turn (gate i to
+   * controller i mod C), so a controller's gates sit in different power groups. Striping is the
+   * harder case for a decision diagram: no variable order keeps both kinds of sharing local.
+   */
+  layout?: 'blocks' | 'striped';
 }
 
 const GATES_PER_POWER_GROUP = 5;
@@ -47,7 +54,7 @@ export function gateFamilyStudy(o: GateFamilyOptions): Record<string, string> {
   const gateIds: string[] = [];
   for (let i = 1; i <= M; i++) {
     const g = Math.ceil(i / GATES_PER_POWER_GROUP);
-    const c = Math.ceil(i / GATES_PER_CONTROLLER);
+    const c = o.layout === 'striped' ? ((i - 1) % controllers) + 1 : Math.ceil(i / GATES_PER_CONTROLLER);
     const trains: string[] = [];
     for (const t of ['a', 'b']) {
       const parts = PART_CLASSES.map((k) => `g${i}${t}-${k}`);
@@ -66,7 +73,7 @@ export function gateFamilyStudy(o: GateFamilyOptions): Record<string, string> {
   const classes = PART_CLASSES.map((k, j) => `  ${k}: { model: fixed, probability: { value: ${[4e-3, 2e-3, 1e-3, 3e-3][j]}, source: bench } }`);
   const settings = `{ samples: 0, horizon: 0${o.maxNodes ? `, max_nodes: ${o.maxNodes}` : ''} }`;
   return {
-    'study.yaml': `format: faultbook/1\ntitle: Gate family ${M}/${o.atLeast} (invented benchmark)\nfacility: none (invented)\nas_of: 2026-06-30\nsettings: ${settings}\n`,
+    'study.yaml': `format: faultbook/1\ntitle: Gate family ${M}/${o.atLeast}${o.layout === 'striped' ? ' striped' : ''} (invented benchmark)\nfacility: none (invented)\nas_of: 2026-06-30\nsettings: ${settings}\n`,
     'sources.yaml': 'sources:\n  bench: { title: Benchmark values (invented), invented: true }\n',
     'events.yaml': `classes:\n${classes.join('\n')}\nevents:\n${ev.join('\n')}\n`,
     'logic.yaml': `tops:\n  short: { title: At least ${o.atLeast} of ${M} gates fail (invented), gate: short-gate }\ngates:\n  short-gate: { atleast: ${o.atLeast}, of: [${gateIds.join(', ')}] }\n${gates.join('\n')}\n`,

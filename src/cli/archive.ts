@@ -60,4 +60,4 @@ const run: Command = async (argv, io) => {
   return EXIT.ok;
 };
 
-export const archiveCommand = { summary: 'bundle a study with its outputs and a manifest into one .tar.gz (optionally signed)', run };
+export const archiveCommand: Command = run;

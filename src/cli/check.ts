@@ -1,4 +1,5 @@
 /** `faultbook check STUDY`: read and validate a study, print its warnings, write nothing. */
+import { commands } from './commands.js';
 import { analysisInputWarnings } from '../analysis/input-warnings.js';
 import { EventProbabilityError } from '../analysis/event-probability.js';
 import { readStudy } from '../study/read.js';
@@ -8,7 +9,7 @@ import { printWarnings, WARNING_FLOOD } from './print.js';
 
 const spec: CommandSpec = {
   usage: 'STUDY [--all] [--quiet]',
-  summary: 'validate a study folder and list its warnings; writes nothing',
+  summary: commands.check!.summary,
   options: {
     quiet: { type: 'boolean', help: 'print errors only' },
     all: { type: 'boolean', help: `list every warning (without it, more than ${WARNING_FLOOD} of one kind print as one line)` },
@@ -46,4 +47,4 @@ const run: Command = async (argv, io) => {
   return EXIT.ok;
 };
 
-export const checkCommand = { summary: spec.summary, run };
+export const checkCommand: Command = run;

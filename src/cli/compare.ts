@@ -70,4 +70,4 @@ const run: Command = async (argv, io) => {
   return EXIT.ok;
 };
 
-export const compareCommand = { summary: 'compare two revisions of a study and show what moved the answer', run };
+export const compareCommand: Command = run;

@@ -65,4 +65,4 @@ function realOrSelf(path: string): string {
   }
 }
 
-export const exportCommand = { summary: 'write the study as an Open-PSA MEF document', run };
+export const exportCommand: Command = run;

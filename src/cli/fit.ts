@@ -52,4 +52,4 @@ const run: Command = async (argv, io) => {
   return EXIT.ok;
 };
 
-export const fitCommand = { summary: 'fit a Weibull distribution to life records', run };
+export const fitCommand: Command = run;

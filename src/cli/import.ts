@@ -98,4 +98,4 @@ function checkReadable(files: Map<string, string>): void {
   }
 }
 
-export const importCommand = { summary: 'make a study folder from an Open-PSA MEF document', run };
+export const importCommand: Command = run;

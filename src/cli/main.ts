@@ -41,7 +41,7 @@ export async function main(argv: string[], rawIo: Io): Promise<number> {
     io.stderr(`faultbook: unknown command '${name}'\n  expected: ${suggest(name, Object.keys(commands), `one of ${Object.keys(commands).join(', ')}`)}\n`);
     return EXIT.badInput;
   }
-  return runGuarded(command.run, rest, io);
+  return runGuarded(async (args, out) => (await command.load())(args, out), rest, io);
 }
 
 export async function runGuarded(run: Command, argv: string[], io: Io): Promise<number> {

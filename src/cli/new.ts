@@ -1,4 +1,5 @@
 /** `faultbook new DIR`: a small starter study to edit, copied from templates/starter. */
+import { commands } from './commands.js';
 import { cpSync, existsSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { packageRoot } from '../package.js';
@@ -8,7 +9,7 @@ import { EXIT, type Command } from './io.js';
 
 const spec: CommandSpec = {
   usage: 'DIR',
-  summary: 'create a starter study folder (refuses a folder that is not empty)',
+  summary: commands.new!.summary,
   options: {},
   positionals: ['DIR'],
 };
@@ -28,4 +29,4 @@ const run: Command = async (argv, io) => {
   return EXIT.ok;
 };
 
-export const newCommand = { summary: spec.summary, run };
+export const newCommand: Command = run;

@@ -93,4 +93,4 @@ const run: Command = async (argv, io) => {
   return EXIT.ok;
 };
 
-export const runCommand = { summary: 'quantify a study and write its appendix', run };
+export const runCommand: Command = run;
