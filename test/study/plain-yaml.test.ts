@@ -97,6 +97,18 @@ describe('quick reader of plain YAML', () => {
     expect(Object.is((quick('a: -0\n')!.data as { a: number }).a, -0)).toBe(true);
   });
 
+  it('reads flow indicators inside block scalars, spaced and empty flow collections and comments in odd places as the full parser does', () => {
+    const texts = [
+      'title: Gate [A], left\n', 'a: x{b}\n', 'a: x, y\n', 'a: { b:\n    1 }\n', 'a: { b: 1, }\n', 'a: {}\nb: []\n', 'a: [ ]\n', 'a: { }\n',
+      'a: [x,\n  # c\n  y]\n', 'a: [x,\n\n   y]\n', 'a:\n  - { b: 1 }\n  - [c]\n', 'a: { b: "x" , c: \'y\' }\n', 'a: [x , y]\n',
+      'k: v\n# c\n  # d\nj: w\n', 'a:\n  b: 1\n# c at column 1\n  c: 2\n', 'a: [x]  # c\n', 'x: -x\ny: --\nz: a-\n', 'a: 1.2.3\nb: 0b101\nc: 😀 z\n',
+    ];
+    for (const text of texts) {
+      expect(quick(text), text).toBeDefined();
+      expect(disagreements(text), text).toEqual([]);
+    }
+  });
+
   it('declines what it does not read itself, and the full parser then reports it as before', () => {
     const declined = [
       'a: &x 1\nb: *x\n', // anchor and alias
@@ -123,7 +135,7 @@ describe('quick reader of plain YAML', () => {
 
   // RUNS=20000 SEED=n npx vitest run test/study/plain-yaml.test.ts searches longer (prints how many texts were read quickly).
   it('agrees with the full parser on generated study-like texts and on their mutations', () => {
-    const scalar = fc.constantFrom('1', '2e-3', '0.004', '75 years', '2e-3 /year', 'no', 'on', '0x1F', '~', 'True', '2026-06-30', 'x#y', 'a b', '"q"', "'it''s'", '"a # b"', '-5', '.5', 'p1-feed.2', 'é', '0o8', '+.inf', '.NaN', '-0', '00', '1.5e+3', 'Null', 'nULL', '0x', '+0x1F', '99999999999999999999', '.');
+    const scalar = fc.constantFrom('1', '2e-3', '0.004', '75 years', '2e-3 /year', 'no', 'on', '0x1F', '~', 'True', '2026-06-30', 'x#y', 'a b', '"q"', "'it''s'", '"a # b"', '-5', '.5', 'p1-feed.2', 'é', '0o8', '+.inf', '.NaN', '-0', '00', '1.5e+3', 'Null', 'nULL', '0x', '+0x1F', '99999999999999999999', '.', 'Gate [A], left', 'x]', 'a, b');
     const key = fc.constantFrom('a', 'motor-1', 'p.value', 'g_2', '1', 'true', 'x.y-z');
     const comment = fc.constantFrom('', ' # note', '  #c');
     type Tree = string | { map: [string, Tree][] } | { seq: Tree[] };
