@@ -1,6 +1,6 @@
 /**
  * A quick reader for the plain YAML that studies are written in: block mappings and sequences,
- * flow mappings and sequences, plain and simply quoted scalars, comments. It gives the same data
+ * flow mappings and sequences, plain and simply quoted scalars, comments, LF or CRLF line ends. It gives the same data
  * and the same positions as the full parser (yaml.ts), about ten times faster, and declines
  * (returns undefined) on anything else: anchors, aliases, tags, block scalars, multi-line plain
  * scalars, escapes, tabs, empty values, duplicate keys, unusual keys, document markers, a text
@@ -70,16 +70,16 @@ function resolvePlain(text: string): unknown {
   if (/^[-+]?(?:\.[0-9]+|[0-9]+(?:\.[0-9]*)?)[eE][-+]?[0-9]+$/.test(text) || /^[-+]?(?:\.[0-9]+|[0-9]+\.[0-9]*)$/.test(text)) return parseFloat(text);
   return text;
 }
-/** Characters the reader leaves to the full parser: tabs, CR, other controls, BOM, NEL, Unicode line breaks. */
-const UNUSUAL_CHARACTER = /[\x00-\x09\x0b-\x1f\x7f-\x9f\u2028\u2029\ufeff]/;
+/** Characters the reader leaves to the full parser: tabs, a CR not before LF, other controls, BOM, NEL, Unicode line breaks. */
+const UNUSUAL_CHARACTER = /[\x00-\x09\x0b\x0c\x0e-\x1f\x7f-\x9f\u2028\u2029\ufeff]|\r(?!\n)/;
 /** Directives, document markers. */
 const DOCUMENT_MARKER = /^(?:---|\.\.\.|%)/m;
 /** Keys as studies write them: ids, `owner.field`. Others go to the full parser. */
 const KEY = /[A-Za-z0-9_][A-Za-z0-9_.\-]*/y;
 const MAX_KEY_CHARS = 1000;
 /** The run of characters a plain scalar may take before what ends or stops it (see Reader.plain). */
-const BLOCK_PLAIN = /[^\n:#]*/y;
-const FLOW_PLAIN = /[^\n:#,[\]{}]*/y;
+const BLOCK_PLAIN = /[^\r\n:#]*/y;
+const FLOW_PLAIN = /[^\r\n:#,[\]{}]*/y;
 
 export function readPlainYaml(file: string, text: string, limits: PlainLimits): PlainYaml | undefined {
   if (UNUSUAL_CHARACTER.test(text) || DOCUMENT_MARKER.test(text)) return undefined;
@@ -146,6 +146,11 @@ export function readPlainYaml(file: string, text: string, limits: PlainLimits): 
   return { data, at, sourceAt };
 }
 
+/** A line break: LF, or the CR of a CRLF (a CR on its own is declined before reading). */
+function isBreak(c: string | undefined): boolean {
+  return c === '\n' || c === '\r';
+}
+
 class Reader {
   private i = 0;
   /** The shadow of the value the last read returned. */
@@ -196,7 +201,7 @@ class Reader {
       i = t.indexOf('\n', i);
       if (i < 0) i = t.length;
     }
-    if (i < t.length && t[i] !== '\n') throw DECLINE;
+    if (i < t.length && !isBreak(t[i])) throw DECLINE;
     return this.skipBlankLines(i + 1);
   }
 
@@ -215,7 +220,7 @@ class Reader {
         i++;
         continue;
       }
-      if (c === '\n') {
+      if (isBreak(c)) {
         i++;
         continue;
       }
@@ -232,7 +237,7 @@ class Reader {
     if (!KEY.test(this.text)) return false;
     const end = KEY.lastIndex;
     const next = this.text[end + 1];
-    return this.text[end] === ':' && (next === ' ' || next === '\n' || next === undefined);
+    return this.text[end] === ':' && (next === ' ' || next === undefined || isBreak(next));
   }
 
   private checkDepth(depth: number): void {
@@ -262,8 +267,8 @@ class Reader {
       if (after === ' ') {
         while (t[this.i] === ' ') this.i++;
         const c = t[this.i];
-        value = c === undefined || c === '\n' || c === '#' ? this.blockValue(col, depth + 1) : this.inlineValue(col, depth + 1, false);
-      } else if (after === '\n' || after === undefined) {
+        value = c === undefined || isBreak(c) || c === '#' ? this.blockValue(col, depth + 1) : this.inlineValue(col, depth + 1, false);
+      } else if (after === undefined || isBreak(after)) {
         value = this.blockValue(col, depth + 1);
       } else {
         throw DECLINE;
@@ -276,7 +281,7 @@ class Reader {
       const nextCol = this.column(next);
       if (nextCol < col) break;
       if (nextCol > col) throw DECLINE;
-      if (t[next] === '-' && (t[next + 1] === ' ' || t[next + 1] === '\n')) break; // a sequence item at this column ends the mapping (its owner decides)
+      if (t[next] === '-' && (t[next + 1] === ' ' || isBreak(t[next + 1]))) break; // a sequence item at this column ends the mapping (its owner decides)
     }
     this.shadow = shadowOf(1, start, start, entries);
     return data;
@@ -291,7 +296,7 @@ class Reader {
     if (next < 0) throw DECLINE;
     const col = this.column(next);
     const t = this.text;
-    const dash = t[next] === '-' && (t[next + 1] === ' ' || t[next + 1] === '\n');
+    const dash = t[next] === '-' && (t[next + 1] === ' ' || isBreak(t[next + 1]));
     if (dash && col >= parentCol) return this.blockSeq(col, next, depth);
     if (col > parentCol && this.startsKey(next)) return this.blockMap(col, next, depth);
     throw DECLINE;
@@ -310,7 +315,7 @@ class Reader {
       this.i += 1;
       while (t[this.i] === ' ') this.i++;
       const c = t[this.i];
-      if (c === undefined || c === '\n' || c === '#') throw DECLINE;
+      if (c === undefined || isBreak(c) || c === '#') throw DECLINE;
       data.push(this.startsKey(this.i) ? this.blockMap(this.column(this.i), this.i, depth + 1) : this.inlineValue(col, depth + 1, true));
       items.push(this.shadow);
       const next = this.nextLine();
@@ -341,7 +346,7 @@ class Reader {
     // Indicators that start something other than a plain scalar, or that the full parser should judge.
     if ('?:,[]{}#&*!|>\'"%@`'.includes(c)) throw DECLINE;
     // '-' starts a plain scalar only when a character that could continue one follows (`-5`, not `- ` or `-]`).
-    if (c === '-' && ' \n,[]{}#'.includes(t[start + 1] ?? ' ')) throw DECLINE;
+    if (c === '-' && ' \r\n,[]{}#'.includes(t[start + 1] ?? ' ')) throw DECLINE;
     // Up to the line's end, a ':' (declined: the full parser decides what it means) or, in a flow
     // collection, a flow indicator; a ' #' before that starts a comment.
     const stop = inFlow ? FLOW_PLAIN : BLOCK_PLAIN;
@@ -418,11 +423,12 @@ class Reader {
     for (;;) {
       const c = t[this.i];
       if (c === ' ') this.i++;
+      else if (c === '\r') this.i++;
       else if (c === '\n') {
         this.i++;
         let j = this.i;
         while (t[j] === ' ') j++;
-        if (t[j] !== '\n' && t[j] !== '#' && j - this.i <= blockCol) throw DECLINE;
+        if (!isBreak(t[j]) && t[j] !== '#' && j - this.i <= blockCol) throw DECLINE;
         this.i = j;
       } else if (c === '#') {
         if (t[this.i - 1] !== ' ' && t[this.i - 1] !== '\n') throw DECLINE;
@@ -454,7 +460,7 @@ class Reader {
         if (!KEY.test(t)) throw DECLINE;
         const keyEnd = KEY.lastIndex;
         key = t.slice(keyStart, keyEnd);
-        if (t[keyEnd] !== ':' || (t[keyEnd + 1] !== ' ' && t[keyEnd + 1] !== '\n')) throw DECLINE;
+        if (t[keyEnd] !== ':' || (t[keyEnd + 1] !== ' ' && !isBreak(t[keyEnd + 1]))) throw DECLINE;
         if (key.length > MAX_KEY_CHARS || key === '__proto__' || entries!.has(key)) throw DECLINE;
         this.size += key.length + 1;
         this.i = keyEnd + 1;
@@ -464,7 +470,7 @@ class Reader {
       let value: unknown;
       if (c === '{' || c === '[') value = this.flow(blockCol, depth + 1);
       else if (c === '"' || c === "'") value = this.quoted();
-      else if (c === undefined || c === ',' || c === close || c === '\n') throw DECLINE;
+      else if (c === undefined || c === ',' || c === close || isBreak(c)) throw DECLINE;
       else value = this.plain(true);
       if (isMap) {
         (data as Record<string, unknown>)[key] = value;

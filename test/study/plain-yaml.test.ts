@@ -74,6 +74,9 @@ describe('quick reader of plain YAML', () => {
     expect(accepted).toBeGreaterThan(files.length / 2);
     expect(quick(readFileSync('example-study/events.yaml', 'utf8'))).toBeDefined();
     expect(quick(readFileSync('example-study/logic.yaml', 'utf8'))).toBeDefined();
+    const crlf = readFileSync('example-study/events.yaml', 'utf8').replace(/\n/g, '\r\n');
+    expect(quick(crlf)).toBeDefined();
+    expect(disagreements(crlf)).toEqual([]);
   });
 
   it('resolves plain scalars by the YAML 1.2 core schema, as the full parser does', () => {
@@ -116,6 +119,7 @@ describe('quick reader of plain YAML', () => {
       'a: |\n  text\n', // block scalar
       'a: 1\na: 2\n', // duplicate key
       'a:\n\tb: 1\n', // tab
+      'a: 1\rb: 2\n', // a CR that does not end a line with LF
       'a:\n', // empty value
       'a: one\n  two\n', // multi-line plain scalar
       'a: "x\\ty"\n', // escape
@@ -170,9 +174,11 @@ describe('quick reader of plain YAML', () => {
         return insert === '' ? t.slice(0, i) + t.slice(i + 1) : t.slice(0, i) + insert + t.slice(i);
       }, text),
     );
+    // Files saved with CRLF line ends read the same (the full parser takes CRLF as one line break).
+    const anyText = fc.tuple(fc.oneof(document, mutated), fc.boolean()).map(([text, crlf]) => (crlf ? text.replace(/\n/g, '\r\n') : text));
     let accepted = 0;
     fc.assert(
-      fc.property(fc.oneof(document, mutated), (text) => {
+      fc.property(anyText, (text) => {
         expect(disagreements(text), text).toEqual([]);
         if (quick(text)) accepted++;
       }),
