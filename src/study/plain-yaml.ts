@@ -1,11 +1,12 @@
 /**
  * A quick reader for the plain YAML that studies are written in: block mappings and sequences,
- * flow mappings and sequences, plain and simply quoted scalars, comments, LF or CRLF line ends. It gives the same data
- * and the same positions as the full parser (yaml.ts), about ten times faster, and declines
- * (returns undefined) on anything else: anchors, aliases, tags, block scalars, multi-line plain
- * scalars, escapes, tabs, empty values, duplicate keys, unusual keys, document markers, a text
- * over the limits — and on anything that could be an error. A declined file goes through the full
- * parser, so every message about a file stays the full parser's and our checks'.
+ * flow mappings and sequences, plain and simply quoted scalars, comments, LF or CRLF line ends.
+ * It gives the same data and the same positions as the full parser (yaml.ts), about ten times
+ * faster, and declines (returns undefined) on anything else: anchors, aliases, tags, block
+ * scalars, multi-line plain scalars, escapes, tabs, empty values, duplicate keys, unusual keys,
+ * document markers, a text over the limits — and on anything that could be an error. A declined
+ * file goes through the full parser, so every message about a file stays the full parser's and
+ * our checks'.
  *
  * Positions follow the full parser's ranges: a mapping starts at its first key, a block sequence at
  * its first '-', a flow collection at its bracket, a scalar at its first character (a quote for a
