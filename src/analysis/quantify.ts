@@ -168,21 +168,21 @@ export function quantifyTops(study: Study, model: LogicModel, compiled: Compiled
     }));
     // Coherence (no negation reaches the top) lets the measures be clamped to their exact ranges.
     const imp = importance(compiled.manager, root, p, undefined, { coherent: mcs.coherent });
-    const ranked: Importance[] = [];
-    imp.birnbaum.forEach((b, v) => {
+    const variables: number[] = [];
+    imp.birnbaum.forEach((_, v) => {
       // Variables past the study's events are common-cause events (never switches).
-      if (study.events[v]?.model === 'switch') return;
-      ranked.push({
-        event: ids[v]!,
-        fussell_vesely: imp.fussellVesely[v]!,
-        birnbaum: b,
-        criticality: imp.criticality[v]!,
-        raw: imp.raw[v]!,
-        rrw: imp.rrw[v]!,
-      });
+      if (study.events[v]?.model !== 'switch') variables.push(v);
     });
-    // Highest Fussell–Vesely first; ties in study order so the table is stable.
-    ranked.sort((a, b) => b.fussell_vesely - a.fussell_vesely || ids.indexOf(a.event) - ids.indexOf(b.event));
+    // Highest Fussell–Vesely first; ties in variable (study) order so the table is stable.
+    variables.sort((a, b) => imp.fussellVesely[b]! - imp.fussellVesely[a]! || a - b);
+    const ranked: Importance[] = variables.map((v) => ({
+      event: ids[v]!,
+      fussell_vesely: imp.fussellVesely[v]!,
+      birnbaum: imp.birnbaum[v]!,
+      criticality: imp.criticality[v]!,
+      raw: imp.raw[v]!,
+      rrw: imp.rrw[v]!,
+    }));
     const summary: TopResult['cut_set_summary'] = {
       listed: cutSets.length,
       truncated: mcs.truncated,

@@ -357,20 +357,20 @@ class SearchTables {
   readonly bound: Float64Array;
   /** Best probability of any path to true. */
   readonly boundAny: Float64Array;
-  /**
-   * sum[slot·K + k]: Σ over paths to true with at most k high edges of the product of their high
-   * variables' probabilities (k < K); sumAny without the limit; count/countAny the number of such
-   * paths. Distinct paths name distinct sets, so these bound the count and the summed probability
-   * of the minimal cut sets below a node.
-   */
-  readonly sum: Float64Array;
-  readonly sumAny: Float64Array;
-  readonly count: Float64Array;
-  readonly countAny: Float64Array;
+  /** The reachable nodes, children first, and the probabilities: kept for the path sums. */
+  private readonly nodes: Int32Array;
+  private readonly nd: Int32Array;
+  private readonly order: Int32Array;
+  private readonly p: ArrayLike<number>;
+  private sums: PathSums | undefined;
 
   constructor(m: BddManager, root: number, p: ArrayLike<number>, rows: number) {
     const { nodes: nd, order } = m.arrays();
     const nodes = m.topological([root]);
+    this.nodes = nodes;
+    this.nd = nd;
+    this.order = order;
+    this.p = p;
     const n = nodes.length;
     const K = rows;
     this.rows = K;
@@ -380,17 +380,11 @@ class SearchTables {
     this.minOnes = new Int32Array(n + 2);
     this.bound = new Float64Array((n + 2) * K);
     this.boundAny = new Float64Array(n + 2);
-    this.sum = new Float64Array((n + 2) * K);
-    this.sumAny = new Float64Array(n + 2);
-    this.count = new Float64Array((n + 2) * K);
-    this.countAny = new Float64Array(n + 2);
     this.zeroValue[1] = T;
     this.minOnes[0] = 0x3fffffff;
-    for (let k = 0; k < K; k++) this.bound[K + k] = this.sum[K + k] = this.count[K + k] = 1;
-    this.boundAny[1] = this.sumAny[1] = this.countAny[1] = 1;
+    for (let k = 0; k < K; k++) this.bound[K + k] = 1;
+    this.boundAny[1] = 1;
     const b = this.bound;
-    const sum = this.sum;
-    const count = this.count;
     for (let i = 0; i < n; i++) {
       const node = nodes[i]!;
       const s = i + 2;
@@ -404,8 +398,32 @@ class SearchTables {
       this.boundAny[s] = Math.max(this.boundAny[ls]!, pv * this.boundAny[hs]!);
       b[s * K] = b[ls * K]!;
       for (let k = 1; k < K; k++) b[s * K + k] = Math.max(b[ls * K + k]!, pv * b[hs * K + k - 1]!);
-      this.sumAny[s] = this.sumAny[ls]! + pv * this.sumAny[hs]!;
-      this.countAny[s] = this.countAny[ls]! + this.countAny[hs]!;
+    }
+  }
+
+  /**
+   * The path sums, made on first use: only a search whose exact-count budget runs out asks for
+   * them, and at three K-row tables of doubles they would be most of the memory of a search over
+   * a diagram of millions of nodes.
+   */
+  pathSums(): PathSums {
+    if (this.sums) return this.sums;
+    const { nodes, nd, order, p, rows: K, slotOf } = this;
+    const n = nodes.length;
+    const sum = new Float64Array((n + 2) * K);
+    const sumAny = new Float64Array(n + 2);
+    const count = new Float64Array((n + 2) * K);
+    const countAny = new Float64Array(n + 2);
+    for (let k = 0; k < K; k++) sum[K + k] = count[K + k] = 1;
+    sumAny[1] = countAny[1] = 1;
+    for (let i = 0; i < n; i++) {
+      const o = nodes[i]! * NODE_STRIDE;
+      const s = i + 2;
+      const ls = slotOf[nd[o + LOW]!]!;
+      const hs = slotOf[nd[o + HIGH]!]!;
+      const pv = p[order[nd[o]!]!]!;
+      sumAny[s] = sumAny[ls]! + pv * sumAny[hs]!;
+      countAny[s] = countAny[ls]! + countAny[hs]!;
       sum[s * K] = sum[ls * K]!;
       count[s * K] = count[ls * K]!;
       for (let k = 1; k < K; k++) {
@@ -413,7 +431,22 @@ class SearchTables {
         count[s * K + k] = count[ls * K + k]! + count[hs * K + k - 1]!;
       }
     }
+    this.sums = { sum, sumAny, count, countAny };
+    return this.sums;
   }
+}
+
+/**
+ * sum[slot·K + k]: Σ over paths to true with at most k high edges of the product of their high
+ * variables' probabilities (k < K); sumAny without the limit; count/countAny the number of such
+ * paths. Distinct paths name distinct sets, so these bound the count and the summed probability
+ * of the minimal cut sets below a node.
+ */
+interface PathSums {
+  readonly sum: Float64Array;
+  readonly sumAny: Float64Array;
+  readonly count: Float64Array;
+  readonly countAny: Float64Array;
 }
 
 /**
@@ -474,8 +507,9 @@ class CutSetSearch {
     const s = t.slotOf[v.node]!;
     const k = this.maxOrder - v.order;
     if (v.node === F || k < 0) return { count: 0, probability: 0 };
-    if (k < t.rows) return { count: t.count[s * t.rows + k]!, probability: v.prob * t.sum[s * t.rows + k]! };
-    return { count: t.countAny[s]!, probability: v.prob * t.sumAny[s]! };
+    const sums = t.pathSums();
+    if (k < t.rows) return { count: sums.count[s * t.rows + k]!, probability: v.prob * sums.sum[s * t.rows + k]! };
+    return { count: sums.countAny[s]!, probability: v.prob * sums.sumAny[s]! };
   }
 
   /** Best probability of a path to true from `node` with at most k high edges (an upper bound). */

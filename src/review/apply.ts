@@ -72,30 +72,33 @@ export function applyUnits(oldStudy: Study, newStudy: Study, units: Unit[]): Stu
     parameters: [...oldStudy.parameters],
     commonCause: [...oldStudy.commonCause],
   };
+  // Look-ups by id, both sides: a study of thousands of events with hundreds of changed ones
+  // would otherwise search the arrays once per change (quadratic).
   const pull = makePuller(s, newStudy);
+  const fromNew = byId(newStudy);
   // The snapshot date first, so events brought in later take their age at the date in force.
   if (units.some((u) => u.kind === 'as_of')) s.meta.as_of = newStudy.meta.as_of;
   for (const u of units) {
     switch (u.kind) {
       case 'parameter': {
-        const np = newStudy.parameters.find((p) => p.key === u.key);
-        const i = s.parameters.findIndex((p) => p.key === u.key);
-        if (np && i >= 0) s.parameters[i] = np;
+        const np = fromNew.parameters.get(u.key);
+        const i = pull.at.parameters.get(u.key);
+        if (np && i !== undefined) s.parameters[i] = np;
         break;
       }
       case 'event': {
-        const ne = newStudy.events.find((e) => e.id === u.id);
-        const i = s.events.findIndex((e) => e.id === u.id);
-        if (ne && i >= 0) {
+        const ne = fromNew.events.get(u.id);
+        const i = pull.at.events.get(u.id);
+        if (ne && i !== undefined) {
           s.events[i] = ne;
           pull.parametersOf(ne);
         }
         break;
       }
       case 'gate': {
-        const ng = newStudy.gates.find((g) => g.id === u.id);
-        const i = s.gates.findIndex((g) => g.id === u.id);
-        if (ng && i >= 0) {
+        const ng = fromNew.gates.get(u.id);
+        const i = pull.at.gates.get(u.id);
+        if (ng && i !== undefined) {
           s.gates[i] = ng;
           for (const input of ng.inputs) pull.node(input);
         }
@@ -142,29 +145,54 @@ function withAge(e: BasicEvent, asOf: string): BasicEvent {
   return age === e.ageYears ? e : { ...e, ageYears: age };
 }
 
-/** Bringing nodes and numbers that OLD lacks in from NEW (never replacing what OLD has). */
+/** A study's gates, events and parameters by id (key). */
+function byId(study: Study) {
+  return {
+    gates: new Map(study.gates.map((g) => [g.id, g])),
+    events: new Map(study.events.map((e) => [e.id, e])),
+    parameters: new Map(study.parameters.map((p) => [p.key, p])),
+  };
+}
+
+/**
+ * Bringing nodes and numbers that OLD lacks in from NEW (never replacing what OLD has). `at` holds
+ * the position of every gate, event and parameter of the study being built, kept up to date as
+ * they are brought in.
+ */
 function makePuller(s: Study, newStudy: Study) {
+  const fromNew = byId(newStudy);
+  const at = {
+    gates: new Map(s.gates.map((g, i) => [g.id, i])),
+    events: new Map(s.events.map((e, i) => [e.id, i])),
+    parameters: new Map(s.parameters.map((p, i) => [p.key, i])),
+  };
   const parameter = (key: string) => {
-    if (s.parameters.some((p) => p.key === key)) return;
-    const np = newStudy.parameters.find((p) => p.key === key);
-    if (np) s.parameters.push(np);
+    if (at.parameters.has(key)) return;
+    const np = fromNew.parameters.get(key);
+    if (np) at.parameters.set(key, s.parameters.push(np) - 1);
   };
   const parametersOf = (e: BasicEvent) => {
     for (const key of Object.values(e.fields)) parameter(key);
   };
-  const node = (id: string): void => {
-    if (s.gates.some((g) => g.id === id) || s.events.some((e) => e.id === id)) return;
-    const ng = newStudy.gates.find((g) => g.id === id);
-    if (ng) {
-      s.gates.push(ng);
-      for (const input of ng.inputs) node(input);
-      return;
-    }
-    const ne = newStudy.events.find((e) => e.id === id);
-    if (ne) {
-      s.events.push(ne);
-      parametersOf(ne);
+  // With an explicit stack: a chain of new gates thousands deep is a valid study.
+  const node = (first: string): void => {
+    const todo = [first];
+    while (todo.length > 0) {
+      const id = todo.pop()!;
+      if (at.gates.has(id) || at.events.has(id)) continue;
+      const ng = fromNew.gates.get(id);
+      if (ng) {
+        at.gates.set(id, s.gates.push(ng) - 1);
+        // Reversed, so the inputs are brought in in their written order, as a recursion would.
+        for (let k = ng.inputs.length - 1; k >= 0; k--) todo.push(ng.inputs[k]!);
+        continue;
+      }
+      const ne = fromNew.events.get(id);
+      if (ne) {
+        at.events.set(id, s.events.push(ne) - 1);
+        parametersOf(ne);
+      }
     }
   };
-  return { parameter, parametersOf, node };
+  return { parameter, parametersOf, node, at };
 }

@@ -97,3 +97,15 @@ export function unitLabel(u: Unit, d: StudyDiff): string {
     }
   }
 }
+
+/**
+ * How a comparison names one side: "revision B" when the two revisions have distinct names, else
+ * "old revision" / "new revision" (with the name when there is one). A study without a revision
+ * name, or two drafts of one revision, must not read "revision  with revision ".
+ */
+export function revisionName(c: { old: { revision: string }; new: { revision: string } }, side: 'old' | 'new'): string {
+  const own = c[side].revision.trim();
+  const other = c[side === 'old' ? 'new' : 'old'].revision.trim();
+  if (own && other && own !== other) return `revision ${own}`;
+  return own ? `${side} revision ${own}` : `${side} revision`;
+}

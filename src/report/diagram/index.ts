@@ -106,12 +106,7 @@ interface Plan {
 }
 
 function planFigures(model: DiagramModel, trees: FigureTree[], capacity: Capacity): Plan {
-  const perPage = (t: FigureTree) => {
-    const noted = t.tree.children.some((c) => c.kind === 'transfer' || isCommonCause(model, c));
-    const page = pageStack(capacity, noted);
-    return Math.max(1, page.rows * page.columns);
-  };
-  const partsOf = (t: FigureTree) => (t.orientation === 'parts' ? Math.ceil(t.tree.children.length / perPage(t)) : 1);
+  const partsOf = (t: FigureTree) => figurePartCount(t, capacity, model);
   const tooWide = (t: FigureTree) => partsOf(t) > MAX_PARTS_PER_GATE;
   const byLevel = trees.map((t, i) => ({ t, i })).sort((a, b) => a.t.depth - b.t.depth || a.i - b.i);
   const keep = new Set<string>();
@@ -149,11 +144,22 @@ export function figureParts(t: FigureTree, capacity: Capacity, model: DiagramMod
   return t.orientation === 'parts' ? inParts(t.tree, capacity, model).map(draw) : [draw(t.tree)];
 }
 
+/** How many parts figureParts will print the figure in, without drawing them. */
+export function figurePartCount(t: FigureTree, capacity: Capacity, model: DiagramModel): number {
+  return t.orientation === 'parts' ? Math.max(1, Math.ceil(t.tree.children.length / inputsPerPart(t.tree, capacity, model))) : 1;
+}
+
+/** Leaf inputs one part of a stacked gate holds (see inParts). */
+function inputsPerPart(tree: TreeNode & { kind: 'gate' }, capacity: Capacity, model: DiagramModel): number {
+  const noted = tree.children.some((c) => c.kind === 'transfer' || isCommonCause(model, c));
+  const page = pageStack(capacity, noted);
+  return Math.max(1, page.rows * page.columns);
+}
+
 /** A gate of more leaf inputs than a page's stack holds, as one tree per page-sized part. */
 function inParts(tree: FigureTree['tree'], capacity: Capacity, model: DiagramModel): TreeNode[] {
   const noted = tree.children.some((c) => c.kind === 'transfer' || isCommonCause(model, c));
-  const page = pageStack(capacity, noted);
-  const per = Math.max(1, page.rows * page.columns);
+  const per = inputsPerPart(tree, capacity, model);
   const parts: TreeNode[] = [];
   for (let first = 0; first < tree.children.length; first += per) {
     const children = tree.children.slice(first, first + per);

@@ -10,15 +10,16 @@
  */
 import type { Results } from '../../analysis/results.js';
 import { contentBox } from '../../report/paper.js';
-import { figureParts } from '../../report/diagram/index.js';
+import { figurePartCount, figureParts } from '../../report/diagram/index.js';
 import { drawFigure } from '../../report/diagram/draw.js';
 import { capacityFor, layoutTree } from '../../report/diagram/layout.js';
 import { drawLegend } from '../../report/diagram/legend.js';
 import { diagramModel, type DiagramModel, type DiagramNode } from '../../report/diagram/model.js';
-import { partition, type TreeNode } from '../../report/diagram/partition.js';
+import { partition, type Capacity, type FigureTree, type TreeNode } from '../../report/diagram/partition.js';
 import type { FigureBlock, Paper } from '../../report/view.js';
 import { reachable } from '../../study/reach.js';
 import type { Comparison } from '../compare.js';
+import { revisionName } from '../describe.js';
 
 export type Mark = 'NEW' | 'RE-WIRED' | 'CHANGED' | 'REMOVED';
 
@@ -53,29 +54,71 @@ export function changeMarks(c: Comparison): { inNew: Map<string, Mark>; inOld: M
   return { inNew, inOld };
 }
 
-export function changedSubtreeFigures(c: Comparison, oldResults: Results, newResults: Results, paper: Paper, nextFigure: () => string): FigureBlock[] {
+/**
+ * Figure parts (about a page each) the changed subtrees may take. A change to one shared parameter
+ * marks every event that reads it, and each of their parents roots a subtree: on a study of
+ * hundreds of like trains that was hundreds of pages of near-identical drawings, which hide the
+ * change they are meant to show. Past the budget, subtrees are listed in a table instead.
+ */
+export const MAX_COMPARE_PARTS = 40;
+
+export interface ChangedSubtrees {
+  figures: FigureBlock[];
+  /** Roots of the subtrees drawn, in figure order. */
+  drawnRoots: string[];
+  /** Subtrees past the drawing budget: their root, what is marked in them, and the root's title. */
+  listed: { root: string; title: string; marked: [string, Mark][] }[];
+}
+
+export function changedSubtreeFigures(c: Comparison, oldResults: Results, newResults: Results, paper: Paper, nextFigure: () => string): ChangedSubtrees {
   const { inNew, inOld } = changeMarks(c);
-  const newRoots = subtreeRoots(newResults, inNew);
-  if (newRoots.length === 0) return [];
-  const figures: FigureBlock[] = [];
+  const newRoots = structuralFirst(newResults, inNew, subtreeRoots(newResults, inNew));
+  // Plans first, figure numbers after: a subtree past the budget takes no number.
+  const oldGates = new Set(oldResults.logic.gates.map((g) => g.id));
+  const drawn: { root: string; newPlan: SubtreePlan; oldPlan?: SubtreePlan }[] = [];
+  const listed: ChangedSubtrees['listed'] = [];
+  let budget = MAX_COMPARE_PARTS;
+  for (const root of newRoots) {
+    const newPlan = subtreePlan(newResults, inNew, root, paper);
+    const oldPlan = oldGates.has(root) && hasRemovedBelow(oldResults, inOld, root) ? subtreePlan(oldResults, inOld, root, paper) : undefined;
+    const parts = newPlan.parts + (oldPlan?.parts ?? 0);
+    if (budget === 0 || parts > budget) {
+      // The first subtree that does not fit ends the drawing, so the figures keep the reading order.
+      budget = 0;
+      const gate = newResults.logic.gates.find((g) => g.id === root);
+      listed.push({ root, title: gate?.title ?? '', marked: newPlan.marked });
+      continue;
+    }
+    budget -= parts;
+    drawn.push({ root, newPlan, ...(oldPlan ? { oldPlan } : {}) });
+  }
+  if (drawn.length === 0) return { figures: [], drawnRoots: [], listed };
+
   const legendNumber = nextFigure();
   const legendCaption = 'Key to the symbols of the logic diagrams';
-  figures.push({
-    kind: 'figure',
-    id: 'fig-compare-legend',
-    number: legendNumber,
-    caption: legendCaption,
-    parts: [drawLegend(`${legendNumber}. ${legendCaption}`, Math.min(contentBox(paper).width, 470))],
-  });
-  const label = (r: Results) => `revision ${r.study.revision}`;
-  for (const root of newRoots) {
-    figures.push(...subtreeFigures(newResults, inNew, root, `Changed subtree ${root}, as in ${label(newResults)}`, paper, nextFigure, `cmp-new-${root}`));
-    const oldGate = oldResults.logic.gates.find((g) => g.id === root);
-    if (oldGate && hasRemovedBelow(oldResults, inOld, root)) {
-      figures.push(...subtreeFigures(oldResults, inOld, root, `The same subtree ${root}, as it was in ${label(oldResults)}`, paper, nextFigure, `cmp-old-${root}`));
-    }
+  const figures: FigureBlock[] = [
+    {
+      kind: 'figure',
+      id: 'fig-compare-legend',
+      number: legendNumber,
+      caption: legendCaption,
+      parts: [drawLegend(`${legendNumber}. ${legendCaption}`, Math.min(contentBox(paper).width, 470))],
+    },
+  ];
+  for (const { root, newPlan, oldPlan } of drawn) {
+    figures.push(...subtreeFigures(newPlan, `Changed subtree ${root}, as in ${revisionName(c, 'new')}`, nextFigure, `cmp-new-${root}`));
+    if (oldPlan) figures.push(...subtreeFigures(oldPlan, `The same subtree ${root}, as it was in ${revisionName(c, 'old')}`, nextFigure, `cmp-old-${root}`));
   }
-  return figures;
+  return { figures, drawnRoots: drawn.map((d) => d.root), listed };
+}
+
+/** Subtrees with a structural change (a node added, removed or re-wired) first, then the rest; each group in study order. */
+function structuralFirst(results: Results, marks: Map<string, Mark>, roots: string[]): string[] {
+  const structural = (root: string) => [...reachable(results.logic.gates, [root])].some((id) => marks.get(id) === 'NEW' || marks.get(id) === 'RE-WIRED') ||
+    results.logic.gates.find((g) => g.id === root)?.inputs.some((i) => marks.get(i) === 'NEW') === true;
+  const first = roots.filter(structural);
+  const firstSet = new Set(first);
+  return [...first, ...roots.filter((r) => !firstSet.has(r))];
 }
 
 /** The changed gates and the parents of changed events, minus those inside another one's subtree. */
@@ -112,18 +155,35 @@ function markedModel(results: Results, marks: Map<string, Mark>, root: string): 
   return { tops: [], node, gateIds, eventIds: base.eventIds };
 }
 
-function subtreeFigures(results: Results, marks: Map<string, Mark>, root: string, caption: string, paper: Paper, nextFigure: () => string, idPrefix: string): FigureBlock[] {
+interface SubtreePlan {
+  model: DiagramModel;
+  capacity: Capacity;
+  trees: FigureTree[];
+  /** Figure parts the subtree takes. */
+  parts: number;
+  /** The marked nodes inside it (gates and their inputs), in mark order. */
+  marked: [string, Mark][];
+}
+
+function subtreePlan(results: Results, marks: Map<string, Mark>, root: string, paper: Paper): SubtreePlan {
   const model = markedModel(results, marks, root);
   const capacity = capacityFor(paper);
-  const trees = partition(model, capacity);
-  const numbers = new Map(trees.map((t, i) => [t.root, { number: nextFigure(), anchor: `fig-${idPrefix}${i === 0 ? '' : `-${t.root}`}`.replace(/[^A-Za-z0-9_-]/g, '_') }]));
-  const continuation = (id: string) => numbers.get(id) ?? { number: 'Figure ?', anchor: `fig-${idPrefix}` };
+  // The subtree's own root first: the first figure carries the subtree's caption and its marks.
+  const trees = partition(model, capacity).sort((a, b) => Number(b.root === root) - Number(a.root === root));
   const inSubtree = new Set(model.gateIds);
   for (const g of model.gateIds) {
     const n = model.node(g);
     if (n.kind === 'gate') for (const i of n.inputs) inSubtree.add(i);
   }
   const marked = [...marks.entries()].filter(([id]) => inSubtree.has(id));
+  const parts = trees.reduce((sum, t) => sum + figurePartCount(t, capacity, model), 0);
+  return { model, capacity, trees, parts, marked };
+}
+
+function subtreeFigures(plan: SubtreePlan, caption: string, nextFigure: () => string, idPrefix: string): FigureBlock[] {
+  const { model, capacity, trees, marked } = plan;
+  const numbers = new Map(trees.map((t, i) => [t.root, { number: nextFigure(), anchor: `fig-${idPrefix}${i === 0 ? '' : `-${t.root}`}`.replace(/[^A-Za-z0-9_-]/g, '_') }]));
+  const continuation = (id: string) => numbers.get(id) ?? { number: 'Figure ?', anchor: `fig-${idPrefix}` };
   return trees.map((t, i) => {
     const { number, anchor } = numbers.get(t.root)!;
     const text = i === 0 ? caption : `${caption}: continuation ${t.root}`;
@@ -148,4 +208,3 @@ function subtreeFigures(results: Results, marks: Map<string, Mark>, root: string
     };
   });
 }
-

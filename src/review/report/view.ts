@@ -11,9 +11,9 @@ import { callout, code, col, keyValues, listWords, para, row, strong, subheading
 import { formatCount, formatNumber, formatProbability, formatQuantity, formatRatio, formatShare } from '../../report/format.js';
 import type { Appendix, Block, Paper, Section, TableRow } from '../../report/view.js';
 import type { Comparison } from '../compare.js';
-import { gateChangeText, gateLogic, parameterValue, uncertaintyText } from '../describe.js';
+import { gateChangeText, gateLogic, parameterValue, revisionName, uncertaintyText } from '../describe.js';
 import type { ParameterChange, ParameterSide } from '../study-diff.js';
-import { changedSubtreeFigures, MARK_MEANING, type Mark } from './diagrams.js';
+import { changedSubtreeFigures, MARK_MEANING, MAX_COMPARE_PARTS, type Mark } from './diagrams.js';
 
 interface Counter {
   number: string;
@@ -59,7 +59,7 @@ export function buildComparisonView(c: Comparison, oldResults: Results, newResul
   }
   const o = c.old;
   const w = c.new;
-  const revisions = `${o.revision} to ${w.revision}`;
+  const revisions = o.revision.trim() && w.revision.trim() ? `${o.revision} to ${w.revision}` : `${revisionName(c, 'old')} to ${revisionName(c, 'new')}`;
   return {
     format: 'faultbook-appendix/1',
     paper,
@@ -67,7 +67,7 @@ export function buildComparisonView(c: Comparison, oldResults: Results, newResul
     cover: {
       facility: w.facility,
       title: w.title,
-      kind: `Comparison of revision ${o.revision} with revision ${w.revision}`,
+      kind: `Comparison of ${revisionName(c, 'old')} with ${revisionName(c, 'new')}`,
       revision: revisions,
       status: w.status,
       date: w.issued ?? w.as_of,
@@ -75,9 +75,9 @@ export function buildComparisonView(c: Comparison, oldResults: Results, newResul
     },
     header: { title: `${w.title} — comparison`, revision: revisions, status: w.status },
     meta: {
-      title: `${w.title} — comparison of revisions ${o.revision} and ${w.revision}`,
+      title: `${w.title} — comparison of ${revisionName(c, 'old').startsWith('revision ') ? `revisions ${o.revision} and ${w.revision}` : `${revisionName(c, 'old')} and ${revisionName(c, 'new')}`}`,
       author: newResults.study.prepared_by.join('; '),
-      subject: `What changed from revision ${o.revision} (as of ${o.as_of}) to revision ${w.revision} (as of ${w.as_of}), and what moved the answer`,
+      subject: `What changed from ${revisionName(c, 'old')} (as of ${o.as_of}) to ${revisionName(c, 'new')} (as of ${w.as_of}), and what moved the answer`,
       keywords: ['fault tree', 'failure probability', 'revision comparison', w.facility].join(', '),
       creator: `${c.tool.name} ${c.tool.version}`,
       date: w.issued ?? w.as_of,
@@ -87,7 +87,8 @@ export function buildComparisonView(c: Comparison, oldResults: Results, newResul
   };
 }
 
-const rev = (c: Comparison, side: 'old' | 'new') => `Revision ${c[side].revision}`;
+const rev = (c: Comparison, side: 'old' | 'new') => capitalise(revisionName(c, side));
+const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 
 function titleBlock(c: Comparison): Section {
   return {
@@ -453,7 +454,7 @@ function whatMoved(c: Comparison, ctx: Counter): Section {
   ];
   const topCols = a.tops.flatMap((t) => [col(t, 'right', { width: 'auto' }), col('change', 'right', { width: 'auto' })]);
   const rows: TableRow[] = [
-    row([`Revision ${c.old.revision} as it was`, ...a.together.flatMap((t) => [formatProbability(t.old), '—'])]),
+    row([`${rev(c, 'old')} as it was`, ...a.together.flatMap((t) => [formatProbability(t.old), '—'])]),
     ...a.effects.map((e) =>
       e.error ? row([e.label, ...a.tops.flatMap(() => ['cannot be applied alone', '—'])]) : row([e.label, ...e.tops.flatMap((t) => [formatProbability(t.value), relativeChange(t.base, t.value)])]),
     ),
@@ -489,9 +490,25 @@ function whatMoved(c: Comparison, ctx: Counter): Section {
 }
 
 function diagrams(c: Comparison, ctx: Counter, input: ViewInput): Section | null {
-  const figures = changedSubtreeFigures(c, input.oldResults, input.newResults, input.paper, ctx.nextFigure);
-  if (figures.length === 0) return null;
+  const { figures, listed, drawnRoots } = changedSubtreeFigures(c, input.oldResults, input.newResults, input.paper, ctx.nextFigure);
+  if (figures.length === 0 && listed.length === 0) return null;
   const marks = Object.entries(MARK_MEANING) as [Mark, string][];
+  const notDrawn: Block[] = [];
+  if (listed.length > 0) {
+    notDrawn.push(
+      table({
+        id: 'tab-cmp-not-drawn',
+        number: ctx.nextTable(),
+        caption: 'Changed subtrees listed instead of drawn',
+        columns: [col('Subtree (gate)', 'left', { code: true }), col('Title', 'left', { width: 2 }), col('Marked nodes in it', 'left', { width: 5 })],
+        rows: listed.map((l) => row([l.root, l.title, l.marked.map(([id, m]) => `[${m}] ${id}`).join(', ')])),
+        note:
+          `The rule: the changed subtrees are drawn until they fill ${MAX_COMPARE_PARTS} figure parts (about a page each), those with an added, ` +
+          're-wired or removed node first, then those whose only change is in basic-event data, each group in study order; the first subtree ' +
+          'that does not fit and every one after it are listed here. The tables of logic and data changes above are complete.',
+      }),
+    );
+  }
   return {
     id: 'sec-cmp-diagrams',
     number: ctx.number,
@@ -504,8 +521,10 @@ function diagrams(c: Comparison, ctx: Counter, input: ViewInput): Section | null
         ...marks.flatMap(([m, meaning], i) => [code(`[${m}]`), ` ${meaning}${i < marks.length - 1 ? '; ' : '.'}`] as Part[]),
         ' A subtree that lost nodes is also drawn as it was in the old revision.',
         c.changes.meta.some((m) => m.field === 'as_of' && m.changed) ? ' The snapshot date changed too, so every age-dependent probability differs; those nodes are not marked.' : '',
+        listed.length > 0 ? ` ${formatCount(listed.length)} of the ${formatCount(listed.length + drawnRoots.length)} changed subtrees are past the drawing budget and listed in a table after the figures.` : '',
       ),
       ...figures,
+      ...notDrawn,
     ],
   };
 }
