@@ -9,7 +9,10 @@
  * fails on a timing.
  *
  *   node bench/run.js gate-family
- *   node --import tsx bench/gate-family.bench.ts [--bin path/to/bin/faultbook.js] [--max-nodes N] [--only 400]
+ *   node --import tsx bench/gate-family.bench.ts [--bin path/to/bin/faultbook.js] [--max-nodes N] [--only 400] [--layout blocks|striped]
+ *
+ * A second table follows: the same family with its controllers striped across the power groups
+ * (bench/gate-family.ts, `layout`), whose diagrams are much larger for the same number of events.
  *
  * `--bin` times another build (the "before" figures of a change); `--max-nodes` writes that
  * settings.max_nodes into the studies (a build whose default budget the larger sizes exceed).
@@ -42,7 +45,17 @@ const arg = (name: string): string | undefined => {
 const bin = arg('--bin') ?? join(here, '..', 'bin', 'faultbook.js');
 const maxNodes = arg('--max-nodes') ? Number(arg('--max-nodes')) : undefined;
 const only = arg('--only');
-const layout = arg('--layout') === 'striped' ? 'striped' : 'blocks';
+const layoutArg = arg('--layout');
+/**
+ * Without --layout: the blocks table at every size, then the striped layout at 50/10 only (at
+ * 100/10 its diagram is 9.6M nodes: faultbook takes minutes, and BuDDy did not finish in 10
+ * minutes on this machine).
+ */
+const TABLES: { layout: 'blocks' | 'striped'; sizes: [number, number][] }[] =
+  layoutArg === 'striped' ? [{ layout: 'striped', sizes: SIZES }] : layoutArg === 'blocks' ? [{ layout: 'blocks', sizes: SIZES }] : [
+    { layout: 'blocks', sizes: SIZES },
+    { layout: 'striped', sizes: [[50, 10]] },
+  ];
 
 interface Timed {
   ok: boolean;
@@ -75,13 +88,17 @@ function main(): void {
   }
   const outDir = join(here, 'out');
   const buddy = prepareBuddy(outDir);
-  console.log(`gate family (invented, controllers in ${layout}): faultbook ${bin} run --format json, whole process, vs BuDDy whole process`);
   if (typeof buddy !== 'string') console.log(`BuDDy comparison skipped: ${buddy.skipped}`);
+  for (const { layout, sizes } of TABLES) table(buddy, layout, sizes);
+}
+
+function table(buddy: string | { skipped: string }, layout: 'blocks' | 'striped', sizes: [number, number][]): void {
+  console.log(`gate family (invented, controllers in ${layout}): faultbook ${bin} run --format json, whole process, vs BuDDy whole process`);
   console.log(
     [pad('M/K', 7), pad('events', 7), pad('top nodes', 10), pad('BuDDy s', 8), pad('cpu', 5), pad('MB', 6), pad('faultbook s', 12), pad('cpu', 5), pad('MB', 6), pad('ratio', 6), pad('P(top)', 22), pad('rel. diff', 10)].join(' '),
   );
   let prev: { nodes: number; seconds: number } | undefined;
-  for (const [M, K] of SIZES) {
+  for (const [M, K] of sizes) {
     if (only && String(M) !== only) continue;
     const dir = mkdtempSync(join(tmpdir(), 'faultbook-bench-family-'));
     try {

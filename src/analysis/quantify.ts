@@ -3,7 +3,7 @@
  * (with the cutoff and maximum order), the rare-event and min-cut upper bound beside it, and the
  * importance of every basic event, all for one set of event probabilities.
  */
-import { compile, cutSetBounds, importance, minimalCutSets, NodeBudgetExceeded, probability, ProbabilityEvaluator, type CompiledLogic } from '../logic/index.js';
+import { compile, cutSetBounds, importance, minimalCutSets, NodeBudgetExceeded, ProbabilityEvaluator, type CompiledLogic } from '../logic/index.js';
 import { ExpansionBudgetExceeded, topDownCutSets } from '../logic/cut-sets-topdown.js';
 import { StudyError } from '../study/errors.js';
 import { reachable } from '../study/reach.js';
@@ -154,20 +154,21 @@ export function quantifyTops(study: Study, model: LogicModel, compiled: Compiled
   const gateP = gateProbabilities(study, model, compiled, p);
   return study.tops.map((top, t) => {
     const root = compiled.gateRoots[model.topGates[t]!]!;
-    const exact = probability(compiled.manager, root, p);
     const mcs = minimalCutSets(compiled.manager, root, p, {
       cutoff: study.settings.cutoff,
       maxOrder: study.settings.max_order,
       maxSets: study.settings.max_cut_sets,
     });
+    // Coherence (no negation reaches the top) lets the measures be clamped to their exact ranges.
+    const imp = importance(compiled.manager, root, p, undefined, { coherent: mcs.coherent });
+    // The exact probability is the importance passes' own bottom-up pass (the same sum as probability()).
+    const exact = imp.probability;
     const bounds = cutSetBounds(mcs.sets);
     const cutSets: CutSet[] = mcs.sets.map((s) => ({
       events: s.vars.map((v) => ids[v]!),
       probability: s.probability,
       share: exact > 0 ? s.probability / exact : 0,
     }));
-    // Coherence (no negation reaches the top) lets the measures be clamped to their exact ranges.
-    const imp = importance(compiled.manager, root, p, undefined, { coherent: mcs.coherent });
     const variables: number[] = [];
     imp.birnbaum.forEach((_, v) => {
       // Variables past the study's events are common-cause events (never switches).

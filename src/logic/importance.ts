@@ -54,6 +54,87 @@ export interface ImportanceOptions {
 export function importance(m: BddManager, root: number, p: ArrayLike<number>, q?: ArrayLike<number>, options: ImportanceOptions = {}): ImportanceResult {
   const coherent = options.coherent ?? false;
   const nv = m.varCount;
+  const passes = importancePasses(m, root, p, q);
+  const { P, a1, a0, present, skips } = passes;
+  // A copy: the passes are shared (see importancePasses) and the clamping below writes to it.
+  const ib = Float64Array.from(passes.ib);
+  const out: ImportanceResult = {
+    probability: P,
+    birnbaum: ib,
+    conditionalTrue: new Float64Array(nv),
+    conditionalFalse: new Float64Array(nv),
+    fussellVesely: new Float64Array(nv),
+    criticality: new Float64Array(nv),
+    raw: new Float64Array(nv),
+    rrw: new Float64Array(nv),
+  };
+  for (let v = 0; v < nv; v++) {
+    let p1 = P;
+    let p0 = P;
+    if (present[v]) {
+      const s = skips.at(m.levelOfVar[v]!);
+      p1 = a1[v]! + s;
+      p0 = a0[v]! + s;
+    }
+    if (coherent) {
+      p1 = Math.max(p1, P);
+      p0 = Math.min(p0, P);
+      if (!(ib[v]! >= 0)) ib[v] = 0;
+    }
+    out.conditionalTrue[v] = p1;
+    out.conditionalFalse[v] = p0;
+    let fv = P > 0 ? (p[v]! * ib[v]!) / P : 0;
+    if (coherent && fv > 1) fv = 1;
+    out.fussellVesely[v] = fv;
+    out.criticality[v] = fv;
+    out.raw[v] = P > 0 ? p1 / P : Infinity;
+    out.rrw[v] = p0 > 0 ? P / p0 : Infinity;
+  }
+  return out;
+}
+
+/** The two passes of one root at one probability vector: what every measure is made from. */
+interface ImportancePasses {
+  P: number;
+  /** Σ R(n)·P(high n), Σ R(n)·P(low n), Σ R(n)·(P(high) − P(low)) over the nodes testing each variable. */
+  a1: Float64Array;
+  a0: Float64Array;
+  ib: Float64Array;
+  present: Uint8Array;
+  skips: LevelRangeSums;
+}
+
+/**
+ * The last few results of the passes, per manager: the point estimate, the sensitivity and the
+ * importance table all ask for the same root at the same probabilities, and on a diagram of a few
+ * hundred thousand nodes each pass is tens of milliseconds. An entry is used only for the same
+ * root, the same numbers (compared value by value) and no garbage collection since (node ids
+ * change with one). Callers read the shared arrays and never write to them.
+ */
+const passCache = new WeakMap<BddManager, { root: number; collections: number; p: Float64Array; q?: Float64Array; passes: ImportancePasses }[]>();
+const PASS_CACHE_ENTRIES = 4;
+
+function sameNumbers(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) return false;
+  return true;
+}
+
+function importancePasses(m: BddManager, root: number, p: ArrayLike<number>, q?: ArrayLike<number>): ImportancePasses {
+  const cached = passCache.get(m) ?? [];
+  const hit = cached.find(
+    (c) => c.root === root && c.collections === m.collectionCount && sameNumbers(c.p, p) && (q ? c.q !== undefined && sameNumbers(c.q, q) : c.q === undefined),
+  );
+  if (hit) return hit.passes;
+  const passes = computePasses(m, root, p, q);
+  cached.push({ root, collections: m.collectionCount, p: Float64Array.from(p), ...(q ? { q: Float64Array.from(q) } : {}), passes });
+  if (cached.length > PASS_CACHE_ENTRIES) cached.shift();
+  passCache.set(m, cached);
+  return passes;
+}
+
+function computePasses(m: BddManager, root: number, p: ArrayLike<number>, q?: ArrayLike<number>): ImportancePasses {
+  const nv = m.varCount;
   const nodes = m.topological([root]);
   const n = nodes.length;
   const { nodes: nd, order } = m.arrays();
@@ -108,40 +189,7 @@ export function importance(m: BddManager, root: number, p: ArrayLike<number>, q?
     const bl = level(loNode);
     if (bl > a + 1 && pl > 0) skips.add(a + 1, bl, r * qv * pl);
   }
-
-  const out: ImportanceResult = {
-    probability: P,
-    birnbaum: ib,
-    conditionalTrue: new Float64Array(nv),
-    conditionalFalse: new Float64Array(nv),
-    fussellVesely: new Float64Array(nv),
-    criticality: new Float64Array(nv),
-    raw: new Float64Array(nv),
-    rrw: new Float64Array(nv),
-  };
-  for (let v = 0; v < nv; v++) {
-    let p1 = P;
-    let p0 = P;
-    if (present[v]) {
-      const s = skips.at(m.levelOfVar[v]!);
-      p1 = a1[v]! + s;
-      p0 = a0[v]! + s;
-    }
-    if (coherent) {
-      p1 = Math.max(p1, P);
-      p0 = Math.min(p0, P);
-      if (!(ib[v]! >= 0)) ib[v] = 0;
-    }
-    out.conditionalTrue[v] = p1;
-    out.conditionalFalse[v] = p0;
-    let fv = P > 0 ? (p[v]! * ib[v]!) / P : 0;
-    if (coherent && fv > 1) fv = 1;
-    out.fussellVesely[v] = fv;
-    out.criticality[v] = fv;
-    out.raw[v] = P > 0 ? p1 / P : Infinity;
-    out.rrw[v] = p0 > 0 ? P / p0 : Infinity;
-  }
-  return out;
+  return { P, a1, a0, ib, present, skips };
 }
 
 /** Range additions over levels [from, to) with point sums: a segment tree of non-negative addends. */

@@ -205,9 +205,14 @@ export function buildStudy(input: BuildInput): Study {
   return study;
 }
 
+/** Every field that some model reads as a number (made once, not per event). */
+const ALL_MODEL_FIELDS = new Set(Object.values(MODEL_FIELDS).flatMap((m) => [...m.required, ...m.optional]));
+
+/** The fields of each model, required and optional, as a set. */
+const FIELDS_OF_MODEL = new Map(Object.entries(MODEL_FIELDS).map(([model, m]) => [model, new Set([...m.required, ...m.optional])]));
+
 function numericFields(raw: Record<string, unknown>): string[] {
-  const all = new Set(Object.values(MODEL_FIELDS).flatMap((m) => [...m.required, ...m.optional]));
-  return Object.keys(raw).filter((k) => all.has(k));
+  return Object.keys(raw).filter((k) => ALL_MODEL_FIELDS.has(k));
 }
 
 /** A fitted parameter cites its fit's source and says where its value came from. */
@@ -315,10 +320,11 @@ function readEvent(
   const model = (typeof raw.model === 'string' ? raw.model : cls?.model) as ModelKind | undefined;
   if (!model) throw new StudyError(`event '${id}' has no model`, at, `'model: fixed | rate | repairable | tested | demand | weibull | switch', here or on its class`);
   const spec = MODEL_FIELDS[model];
+  const allowed = FIELDS_OF_MODEL.get(model)!;
   const fields: Record<string, string> = {};
   const own = numericFields(raw);
   for (const field of own) {
-    if (![...spec.required, ...spec.optional].includes(field)) {
+    if (!allowed.has(field)) {
       throw new StudyError(`event '${id}': '${field}' is not a parameter of the ${model} model`, file.keyAt(['events', id, field]), `fields of ${model}: ${[...spec.required, ...spec.optional].join(', ') || 'none'}`);
     }
     const defaultSource = typeof raw.source === 'string' ? raw.source : cls?.source;
@@ -329,7 +335,7 @@ function readEvent(
   }
   for (const [field, key] of cls?.fields ?? []) {
     if (fields[field]) continue;
-    if (![...spec.required, ...spec.optional].includes(field)) {
+    if (!allowed.has(field)) {
       // A class may serve events of several models only when the field means something to this one.
       if (typeof raw.model === 'string') continue;
       throw new StudyError(`class '${className}': '${field}' is not a parameter of the ${model} model`, cls!.at, `fields of ${model}: ${[...spec.required, ...spec.optional].join(', ')}`);
@@ -426,11 +432,14 @@ function readCommonCause(
   const wanted = CCF_FIELDS[method](members.length);
   if (method === 'mgl' && members.length > 4) throw new StudyError(`multiple Greek letter group '${id}' has ${members.length} members`, at, 'at most 4 members with beta, gamma, delta; use the alpha-factor method for larger groups');
   const fields: Record<string, string> = {};
+  // The group's own parameters by field (the study's parameter list is long; no search through it).
+  const own = new Map<string, Parameter>();
   for (const field of wanted) {
     if (raw[field] === undefined) throw new StudyError(`common-cause group '${id}' (${method}) has no '${field}'`, at, `${method} with ${members.length} members needs ${wanted.join(', ')}`);
     const p = readParameter(raw[field], { file, path: ['common_cause', id, field], owner: id, ownerKind: 'group', field, fitted });
     parameters.push(p);
     fields[field] = p.key;
+    own.set(field, p);
   }
   for (const key of Object.keys(raw)) {
     if (/^(beta|gamma|delta|alpha\d+)$/.test(key) && !wanted.includes(key)) {
@@ -438,13 +447,13 @@ function readCommonCause(
     }
   }
   if (method === 'alpha') {
-    const sum = wanted.reduce((s, f) => s + parameters.find((p) => p.key === fields[f])!.value, 0);
+    const sum = wanted.reduce((s, f) => s + own.get(f)!.value, 0);
     if (Math.abs(sum - 1) > 1e-6) throw new StudyError(`common-cause group '${id}': the alpha factors add up to ${sum}`, at, 'alpha1 + … + alphaM = 1');
   }
-  const dirichlet = raw.uncertainty === undefined ? undefined : readAlphaUncertainty(id, method, raw.uncertainty, file, wanted.map((f) => parameters.find((p) => p.key === fields[f])!));
+  const dirichlet = raw.uncertainty === undefined ? undefined : readAlphaUncertainty(id, method, raw.uncertainty, file, wanted.map((f) => own.get(f)!));
   if (method === 'alpha') {
     for (const f of wanted) {
-      const p = parameters.find((x) => x.key === fields[f])!;
+      const p = own.get(f)!;
       if (p.uncertainty) {
         throw new StudyError(
           `common-cause group '${id}': '${f}' states an uncertainty of its own; the alpha factors add up to 1, so their uncertainty is stated for the group, jointly`,
@@ -579,12 +588,13 @@ function checkReferences(
   for (const e of s.events) {
     for (const a of e.assumptions) if (!assumptionIds.has(a)) errors.push(new StudyError(`event '${e.id}' rests on unknown assumption '${a}'`, e.at, ahint));
   }
-  const eventIds = new Set(s.events.map((e) => e.id));
+  const eventById = new Map(s.events.map((e) => [e.id, e]));
   const groupOf = new Map<string, string>();
   for (const g of s.commonCause) {
     for (const m of g.members) {
-      if (!eventIds.has(m)) errors.push(new StudyError(`common-cause group '${g.id}' names unknown event '${m}'`, g.at, 'basic-event ids from events.yaml'));
-      else if (s.events.find((e) => e.id === m)!.model === 'switch') errors.push(new StudyError(`common-cause group '${g.id}' names switch (house) event '${m}'`, g.at, 'basic events that can fail; a switch is a condition, not a failure'));
+      const event = eventById.get(m);
+      if (!event) errors.push(new StudyError(`common-cause group '${g.id}' names unknown event '${m}'`, g.at, 'basic-event ids from events.yaml'));
+      else if (event.model === 'switch') errors.push(new StudyError(`common-cause group '${g.id}' names switch (house) event '${m}'`, g.at, 'basic events that can fail; a switch is a condition, not a failure'));
       // One failure mode of a component belongs to one group (NUREG/CR-5485): two groups would count its shared causes twice.
       const other = groupOf.get(m);
       if (other !== undefined) errors.push(new StudyError(`event '${m}' is in common-cause groups '${other}' and '${g.id}'`, g.at, 'each event in one group at most'));

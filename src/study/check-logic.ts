@@ -35,7 +35,9 @@ export function checkLogic(parts: LogicParts): void {
       errors.push(new StudyError(`top '${t.id}' names unknown gate '${t.gate}'`, t.at, suggest(t.gate, [...gateIds.keys()], 'a gate id from logic.yaml')));
     }
   }
-  const known = [...gateIds.keys(), ...eventIds];
+  // Every id, for "did you mean": made only when an input is unknown.
+  let known: string[] | undefined;
+  const knownIds = (): string[] => (known ??= [...gateIds.keys(), ...eventIds]);
   for (const g of parts.gates) {
     const seen = new Set<string>();
     g.inputs.forEach((input, i) => {
@@ -43,7 +45,7 @@ export function checkLogic(parts: LogicParts): void {
       if (seen.has(input)) errors.push(new StudyError(`gate '${g.id}' lists '${input}' twice`, at, 'each input once'));
       seen.add(input);
       if (!gateIds.has(input) && !eventIds.has(input)) {
-        errors.push(new StudyError(`gate '${g.id}' has unknown input '${input}'`, at, suggest(input, known, 'the id of a gate or a basic event')));
+        errors.push(new StudyError(`gate '${g.id}' has unknown input '${input}'`, at, suggest(input, knownIds(), 'the id of a gate or a basic event')));
       }
     });
   }

@@ -5,7 +5,7 @@
 import { FitError, fitWeibull, type WeibullFit } from '../reliability/fit/index.js';
 import { StudyError } from './errors.js';
 import { fitData, parseLifeData } from './life-data.js';
-import type { BasicEvent, FitSpec, Pos, Study } from './types.js';
+import type { BasicEvent, FitSpec, Parameter, Pos, Study } from './types.js';
 
 export type ReadText = (rel: string, at: Pos) => string;
 
@@ -31,6 +31,25 @@ export function runFit(fit: FitSpec, readText: ReadText, asOf?: string): Weibull
 }
 
 /**
+ * Parameters by key, made once per parameter list: extrapolation is asked for every event, and a
+ * search through the list each time grows with the square of the study. The index is remade when
+ * the list's length changes (a list is only ever appended to).
+ */
+const parameterIndexes = new WeakMap<readonly Parameter[], { length: number; byKey: Map<string, Parameter> }>();
+
+function parameterByKey(parameters: readonly Parameter[], key: string): Parameter | undefined {
+  let index = parameterIndexes.get(parameters);
+  if (!index || index.length !== parameters.length) {
+    const byKey = new Map<string, Parameter>();
+    // The first of a key wins, as a search from the front would find it.
+    for (const p of parameters) if (!byKey.has(p.key)) byKey.set(p.key, p);
+    index = { length: parameters.length, byKey };
+    parameterIndexes.set(parameters, index);
+  }
+  return index.byKey.get(key);
+}
+
+/**
  * Where an event's age lies beyond the data behind its fitted shape or scale: older than every life,
  * failed or suspended, the fit used. The model still gives a number, but an extrapolated one.
  */
@@ -38,7 +57,7 @@ export function extrapolation(study: Pick<Study, 'parameters' | 'fits'>, event: 
   if (event.model !== 'weibull' || event.ageYears === undefined) return undefined;
   for (const field of ['shape', 'scale'] as const) {
     const key = event.fields[field];
-    const fitId = key ? study.parameters.find((p) => p.key === key)?.fit : undefined;
+    const fitId = key ? parameterByKey(study.parameters, key)?.fit : undefined;
     const fit = fitId ? study.fits.find((f) => f.id === fitId) : undefined;
     if (fit?.dataMaxYears !== undefined && event.ageYears > fit.dataMaxYears) {
       return { fit: fit.id, age_years: event.ageYears, data_max_years: fit.dataMaxYears };

@@ -2,35 +2,47 @@
  * Structure checks against the published JSON Schemas in schema/ (the same files editors use), with
  * each complaint turned into a StudyError that points at the offending line and says what would fit.
  */
-import AjvModule, { type ErrorObject, type ValidateFunction } from 'ajv';
-import { readdirSync, readFileSync } from 'node:fs';
-import { join } from 'node:path';
-import { packageRoot } from '../package.js';
+import type { ErrorObject, ValidateFunction } from 'ajv';
+import { createRequire } from 'node:module';
 import { suggest } from './check-logic.js';
 import { StudyError } from './errors.js';
+import { compileSchemas, FILE_KINDS, readSchemaTexts, schemaDigest, type StudyFileKind } from './schema-compile.js';
 import type { YamlFile, PathSegment } from './yaml.js';
 
-// ajv is CommonJS: under NodeNext its class arrives as the default export's `default`.
-const Ajv = AjvModule.default;
-
-const SCHEMA_BASE = 'https://faultbook.invalid/schema/';
-export type StudyFileKind = 'study' | 'logic' | 'events' | 'sources';
+export type { StudyFileKind } from './schema-compile.js';
 
 let validators: Map<StudyFileKind, ValidateFunction> | undefined;
 
+/**
+ * The validators made at build time (dist/study/schema-validators.cjs, beside this module once
+ * compiled) when they were made from the schema files as they are now; otherwise compiled here.
+ */
 function load(): Map<StudyFileKind, ValidateFunction> {
   if (validators) return validators;
-  // verbose: errors carry their schema, so a message can list the keys that would have fitted.
-  const ajv = new Ajv({ allErrors: true, strict: false, verbose: true });
-  const dir = join(packageRoot, 'schema');
-  for (const name of readdirSync(dir).filter((f) => f.endsWith('.schema.json')).sort()) {
-    ajv.addSchema(JSON.parse(readFileSync(join(dir, name), 'utf8')) as object);
-  }
-  validators = new Map();
-  for (const kind of ['study', 'logic', 'events', 'sources'] as const) {
-    validators.set(kind, ajv.getSchema(`${SCHEMA_BASE}${kind}.schema.json`)!);
+  const texts = readSchemaTexts();
+  const generated = loadGenerated();
+  if (generated && generated.schemaDigest === schemaDigest(texts)) {
+    validators = new Map(FILE_KINDS.map((kind) => [kind, generated[kind] as ValidateFunction]));
+  } else {
+    validators = compileSchemas(texts).validators;
   }
   return validators;
+}
+
+type GeneratedModule = Record<StudyFileKind, unknown> & { schemaDigest: string };
+
+function loadGenerated(): GeneratedModule | undefined {
+  try {
+    return createRequire(import.meta.url)('./schema-validators.cjs') as GeneratedModule;
+  } catch {
+    return undefined;
+  }
+}
+
+/** Which validators `checkStructure` uses: for the test that the generated ones agree with the schema. */
+export function validatorOrigin(): 'generated' | 'compiled' {
+  const generated = loadGenerated();
+  return generated && generated.schemaDigest === schemaDigest(readSchemaTexts()) ? 'generated' : 'compiled';
 }
 
 /** Every structural problem of one file, most useful first; empty when it fits. */

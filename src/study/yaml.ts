@@ -2,8 +2,10 @@
  * YAML with positions. A study file is parsed once into a document that keeps every node's place,
  * so any later check can point at file, line and column by the path of the value it rejects.
  */
-import { isAlias, isMap, isScalar, isSeq, LineCounter, parseDocument, visit, type Document, type ErrorCode, type Node, type Pair, type YAMLMap } from 'yaml';
+import { createRequire } from 'node:module';
+import type { Document, ErrorCode, Node, Pair, YAMLMap } from 'yaml';
 import { StudyError } from './errors.js';
+import { readPlainYaml } from './plain-yaml.js';
 import type { Pos } from './types.js';
 
 export type PathSegment = string | number;
@@ -34,6 +36,24 @@ export const MAX_EXPANDED_CHARS = 16 * 1024 * 1024;
 export const MAX_TEXT_CHARS = 64 * 1024;
 
 export function parseYamlFile(file: string, text: string): YamlFile {
+  // Most study files are plain YAML: read them quickly; anything else takes the full parser below.
+  const plain = readPlainYaml(file, text, { maxDepth: MAX_DEPTH, maxTextChars: MAX_TEXT_CHARS, maxExpandedChars: MAX_EXPANDED_CHARS });
+  if (plain) return { file, text, data: plain.data, at: (path) => plain.at(path, false), keyAt: (path) => plain.at(path, true), sourceAt: plain.sourceAt };
+  return parseYamlDocument(file, text);
+}
+
+/**
+ * The `yaml` package, loaded the first time a file needs the full parser (a study whose files are
+ * all plain never loads it). It is CommonJS under Node, so `require` keeps reading synchronous.
+ */
+let yamlPackage: typeof import('yaml') | undefined;
+function fullParser(): typeof import('yaml') {
+  return (yamlPackage ??= createRequire(import.meta.url)('yaml') as typeof import('yaml'));
+}
+
+/** The full parser: any YAML, every check, the parser's own errors explained. */
+export function parseYamlDocument(file: string, text: string): YamlFile {
+  const { isMap, isScalar, isSeq, LineCounter, parseDocument, visit } = fullParser();
   const lineCounter = new LineCounter();
   // stringKeys: a key that is a list or a mapping is an error here, not a warning printed by the parser later.
   // uniqueKeys is off because the parser compares each key with every earlier one (quadratic in the
@@ -110,7 +130,7 @@ export function parseYamlFile(file: string, text: string): YamlFile {
   const sourceAt = (path: readonly PathSegment[]): string | undefined => {
     let node: unknown = doc.contents;
     for (const seg of path) {
-      if (isMap(node)) node = node.items.find((p) => (isScalar(p.key) ? String(p.key.value) : p.key) === String(seg))?.value;
+      if (isMap(node)) node = pairOf(node as YAMLMap, String(seg))?.value;
       else if (isSeq(node) && typeof seg === 'number') node = node.items[seg];
       else return undefined;
     }
@@ -126,6 +146,7 @@ function isNodeWithRange(node: unknown): node is Node & { range: [number, number
 }
 
 function checkDepth(doc: Document, posOf: (offset: number) => Pos): void {
+  const { isMap, isSeq } = fullParser();
   const stack: { node: unknown; depth: number }[] = [{ node: doc.contents, depth: 0 }];
   while (stack.length > 0) {
     const { node, depth } = stack.pop()!;
@@ -153,6 +174,7 @@ function checkTags(doc: Document, posOf: (offset: number) => Pos): void {
 
 /** Each key once per mapping, checked with a set per mapping (linear). */
 function checkDuplicateKeys(doc: Document, posOf: (offset: number) => Pos): void {
+  const { isMap, isScalar, isSeq } = fullParser();
   const stack: unknown[] = [doc.contents];
   while (stack.length > 0) {
     const node = stack.pop();
@@ -182,6 +204,7 @@ function checkDuplicateKeys(doc: Document, posOf: (offset: number) => Pos): void
  * (which precedes it); the count limit alone lets one huge scalar be repeated into gigabytes.
  */
 function checkExpandedSize(doc: Document, posOf: (offset: number) => Pos): void {
+  const { isAlias, isMap, isScalar, isSeq } = fullParser();
   const sizes = new Map<unknown, number>();
   const anchors = new Map<string, unknown>();
   let firstAlias: Pos | undefined;

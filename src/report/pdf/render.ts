@@ -419,31 +419,28 @@ function figureContent(block: FigureBlock, view: Appendix): Content {
 
 function calloutContent(block: CalloutBlock): Content {
   const tone = TONE[block.tone];
+  // One row per paragraph, the title with the first: a long box splits between paragraphs
+  // instead of moving whole to the next page and leaving the heading above it behind.
+  const [first, ...rest] = block.paragraphs;
+  const paragraph = (p: Run[]) => ({ text: runs(p), style: 'calloutText' }) as Content;
+  const body = [
+    [{ stack: [{ text: block.title, style: 'calloutTitle', color: tone.edge }, ...(first ? [paragraph(first)] : [])], fillColor: tone.fill }],
+    ...rest.map((p) => [{ stack: [paragraph(p)], fillColor: tone.fill }]),
+  ];
+  const rows = body.length;
+  const edge = block.tone === 'bound' ? 1.2 : 0.5;
   return {
-    table: {
-      widths: ['*'],
-      body: [
-        [
-          {
-            stack: [
-              { text: block.title, style: 'calloutTitle', color: tone.edge },
-              ...block.paragraphs.map((p) => ({ text: runs(p), style: 'calloutText' }) as Content),
-            ],
-            fillColor: tone.fill,
-          },
-        ],
-      ],
-      dontBreakRows: true,
-    },
+    table: { widths: ['*'], body, dontBreakRows: true },
     layout: {
-      hLineWidth: () => (block.tone === 'bound' ? 1.2 : 0.5),
-      vLineWidth: (i) => (i === 0 ? 4 : block.tone === 'bound' ? 1.2 : 0.5),
+      // Lines only around the box, not between its paragraphs.
+      hLineWidth: (i: number) => (i === 0 || i === rows ? edge : 0),
+      vLineWidth: (i: number) => (i === 0 ? 4 : edge),
       hLineColor: () => (block.tone === 'bound' ? tone.edge : RULE),
-      vLineColor: (i) => (i === 0 || block.tone === 'bound' ? tone.edge : RULE),
+      vLineColor: (i: number) => (i === 0 || block.tone === 'bound' ? tone.edge : RULE),
       paddingLeft: () => 10,
       paddingRight: () => 8,
-      paddingTop: () => 6,
-      paddingBottom: () => 3,
+      paddingTop: (i: number) => (i === 0 ? 6 : 0),
+      paddingBottom: (i: number) => (i === rows - 1 ? 3 : 0),
     },
     margin: [0, 2, 0, 5],
   } as Content;
