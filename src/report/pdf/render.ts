@@ -134,14 +134,29 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
         { text: `Page ${currentPage} of ${pageCount}`, style: 'running', alignment: 'right', width: 'auto' },
       ],
     }),
-    // A heading or caption left last on its page moves to the next one, with what it introduces.
-    pageBreakBefore: (node, nodes) =>
-      node.headlineLevel !== undefined && nodes.getFollowingNodesOnPage().every((n) => n.canvas !== undefined),
+    // A heading or a table caption too near the foot of its page to keep a few lines of what it
+    // introduces moves to the next page with them. Measured from the heading's own place: the
+    // nodes the layout engine lists after it on the page include the running header and footer,
+    // so "nothing follows it" cannot be read from them. (A box after a heading splits between
+    // its paragraphs rather than leave the heading behind: see calloutContent.)
+    pageBreakBefore: (node) => {
+      const level = node.headlineLevel;
+      if (level === undefined) return false;
+      const at = node.startPosition;
+      return (1 - at.verticalRatio) * at.pageInnerHeight < (KEEP_WITH_NEXT[level] ?? 0);
+    },
     content,
     defaultStyle: { font: 'Roboto', fontSize: 8.2, lineHeight: 1.15, color: INK },
     styles: STYLES,
   };
 }
+
+/**
+ * Room (pt) a heading needs below its top to stay on its page, by headlineLevel: a section heading
+ * with its rule and about three lines (1), a subheading and about three lines (2), a table caption
+ * with the header row and two rows (3).
+ */
+const KEEP_WITH_NEXT: Record<number, number> = { 1: 80, 2: 50, 3: 50 };
 
 const STYLES: TDocumentDefinitions['styles'] = {
   body: { margin: [0, 0, 0, 3] },
@@ -262,7 +277,6 @@ function sectionContent(section: Section, view: Appendix, afterLandscape = false
     outline: true,
     outlineText: section.number ? `${section.number} ${section.title}` : section.title,
     ...(section.number ? { tocItem: true } : {}),
-    headlineLevel: 1,
   } as Content;
   const rule: Content = {
     canvas: [{ type: 'line', x1: 0, y1: 2, x2: contentBox(view.paper).width, y2: 2, lineWidth: 1.2, lineColor: ACCENT }],
@@ -280,7 +294,9 @@ function sectionContent(section: Section, view: Appendix, afterLandscape = false
     return content;
   });
   return {
-    stack: [{ stack: [heading, rule], unbreakable: true }, ...body],
+    // The page-break rule acts on the heading's block, not on the text inside it: a break asked
+    // for inside a block that cannot split loses the heading's bookmark.
+    stack: [{ stack: [heading, rule], unbreakable: true, headlineLevel: 1 }, ...body],
     ...(section.newPage || afterLandscape ? { pageBreak: 'before', pageOrientation: 'portrait' } : {}),
   } as Content;
 }
