@@ -146,7 +146,7 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
       return (1 - at.verticalRatio) * at.pageInnerHeight < (KEEP_WITH_NEXT[level] ?? 0);
     },
     content,
-    defaultStyle: { font: 'Roboto', fontSize: 8.2, lineHeight: 1.15, color: INK },
+    defaultStyle: { font: 'Roboto', fontSize: 8.2, lineHeight: 1.13, color: INK },
     styles: STYLES,
   };
 }
@@ -154,9 +154,18 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
 /**
  * Room (pt) a heading needs below its top to stay on its page, by headlineLevel: a section heading
  * with its rule and about three lines (1), a subheading and about three lines (2), a table caption
- * with the header row and two rows (3).
+ * with the header row and two rows (3), a section heading over a listing or drawing (4).
  */
-const KEEP_WITH_NEXT: Record<number, number> = { 1: 80, 2: 50, 3: 50 };
+const KEEP_WITH_NEXT: Record<number, number> = { 1: 80, 2: 50, 3: 50, 4: 150 };
+
+/**
+ * A section whose first block after its opening paragraphs is a listing or a drawing, which cannot
+ * split: its heading needs room for that block's first part too (headlineLevel 4).
+ */
+function opensWithBlockThatCannotSplit(section: Section): boolean {
+  const first = section.blocks.find((b) => b.kind !== 'text');
+  return first?.kind === 'pre' || first?.kind === 'figure';
+}
 
 const STYLES: TDocumentDefinitions['styles'] = {
   body: { margin: [0, 0, 0, 3] },
@@ -296,7 +305,7 @@ function sectionContent(section: Section, view: Appendix, afterLandscape = false
   return {
     // The page-break rule acts on the heading's block, not on the text inside it: a break asked
     // for inside a block that cannot split loses the heading's bookmark.
-    stack: [{ stack: [heading, rule], unbreakable: true, headlineLevel: 1 }, ...body],
+    stack: [{ stack: [heading, rule], unbreakable: true, headlineLevel: opensWithBlockThatCannotSplit(section) ? 4 : 1 }, ...body],
     ...(section.newPage || afterLandscape ? { pageBreak: 'before', pageOrientation: 'portrait' } : {}),
   } as Content;
 }
