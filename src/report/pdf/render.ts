@@ -134,37 +134,10 @@ function documentDefinition(view: Appendix): TDocumentDefinitions {
         { text: `Page ${currentPage} of ${pageCount}`, style: 'running', alignment: 'right', width: 'auto' },
       ],
     }),
-    // A heading or a table caption too near the foot of its page to keep a few lines of what it
-    // introduces moves to the next page with them. Measured from the heading's own place: the
-    // nodes the layout engine lists after it on the page include the running header and footer,
-    // so "nothing follows it" cannot be read from them. (A box after a heading splits between
-    // its paragraphs rather than leave the heading behind: see calloutContent.)
-    pageBreakBefore: (node) => {
-      const level = node.headlineLevel;
-      if (level === undefined) return false;
-      const at = node.startPosition;
-      return (1 - at.verticalRatio) * at.pageInnerHeight < (KEEP_WITH_NEXT[level] ?? 0);
-    },
     content,
-    defaultStyle: { font: 'Roboto', fontSize: 8.2, lineHeight: 1.13, color: INK },
+    defaultStyle: { font: 'Roboto', fontSize: 8.2, lineHeight: 1.15, color: INK },
     styles: STYLES,
   };
-}
-
-/**
- * Room (pt) a heading needs below its top to stay on its page, by headlineLevel: a section heading
- * with its rule and about three lines (1), a subheading and about three lines (2), a table caption
- * with the header row and two rows (3), a section heading over a listing or drawing (4).
- */
-const KEEP_WITH_NEXT: Record<number, number> = { 1: 80, 2: 50, 3: 50, 4: 150 };
-
-/**
- * A section whose first block after its opening paragraphs is a listing or a drawing, which cannot
- * split: its heading needs room for that block's first part too (headlineLevel 4).
- */
-function opensWithBlockThatCannotSplit(section: Section): boolean {
-  const first = section.blocks.find((b) => b.kind !== 'text');
-  return first?.kind === 'pre' || first?.kind === 'figure';
 }
 
 const STYLES: TDocumentDefinitions['styles'] = {
@@ -303,9 +276,7 @@ function sectionContent(section: Section, view: Appendix, afterLandscape = false
     return content;
   });
   return {
-    // The page-break rule acts on the heading's block, not on the text inside it: a break asked
-    // for inside a block that cannot split loses the heading's bookmark.
-    stack: [{ stack: [heading, rule], unbreakable: true, headlineLevel: opensWithBlockThatCannotSplit(section) ? 4 : 1 }, ...body],
+    stack: [{ stack: [heading, rule], unbreakable: true }, ...body],
     ...(section.newPage || afterLandscape ? { pageBreak: 'before', pageOrientation: 'portrait' } : {}),
   } as Content;
 }
@@ -323,7 +294,6 @@ function blockContent(block: Block, section: Section, view: Appendix): Content {
         id: block.id,
         outline: true,
         outlineParentId: section.id,
-        headlineLevel: 2,
       } as Content;
     case 'table':
       return tableContent(block);
@@ -412,7 +382,7 @@ function tableContent(block: TableBlock): Content {
   };
   return {
     stack: [
-      { ...(caption(block.number, block.caption) as object), headlineLevel: 3 } as Content,
+      caption(block.number, block.caption),
       table,
       ...(block.note ? [{ text: block.note, style: 'note' } as Content] : []),
     ],
