@@ -168,3 +168,8 @@ function toSignificant(x: number, figures: number): string {
 function trimZeros(text: string): string {
   return text.includes('.') ? text.replace(/\.?0+$/, '') : text;
 }
+
+/** The text with its first letter in capitals (a clause used as a sentence or a label). */
+export function capitalise(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}

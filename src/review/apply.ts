@@ -74,8 +74,8 @@ export function applyUnits(oldStudy: Study, newStudy: Study, units: Unit[]): Stu
   };
   // Look-ups by id, both sides: a study of thousands of events with hundreds of changed ones
   // would otherwise search the arrays once per change (quadratic).
-  const pull = makePuller(s, newStudy);
   const fromNew = byId(newStudy);
+  const pull = makePuller(s, fromNew);
   // The snapshot date first, so events brought in later take their age at the date in force.
   if (units.some((u) => u.kind === 'as_of')) s.meta.as_of = newStudy.meta.as_of;
   for (const u of units) {
@@ -159,8 +159,7 @@ function byId(study: Study) {
  * the position of every gate, event and parameter of the study being built, kept up to date as
  * they are brought in.
  */
-function makePuller(s: Study, newStudy: Study) {
-  const fromNew = byId(newStudy);
+function makePuller(s: Study, fromNew: ReturnType<typeof byId>) {
   const at = {
     gates: new Map(s.gates.map((g, i) => [g.id, i])),
     events: new Map(s.events.map((e, i) => [e.id, i])),

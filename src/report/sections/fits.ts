@@ -2,7 +2,7 @@ import type { FitBound, FitResult, Results } from '../../analysis/results.js';
 import { callout, code, col, keyValues, listWords, para, row, strong, subheading, table, xref } from '../blocks.js';
 import { METHOD_WORDS, levelText, weibullPlot } from '../charts/weibull-plot.js';
 import { anchor, type BuildContext, type SectionRule } from '../context.js';
-import { formatCount, formatDuration, formatRatio } from '../format.js';
+import { capitalise, formatCount, formatDuration, formatRatio } from '../format.js';
 import { contentBox } from '../paper.js';
 import type { Block } from '../view.js';
 
@@ -150,6 +150,6 @@ function usedByPara(fit: FitResult, ctx: BuildContext): Block {
 
 /** Warnings come as lower-case clauses; the callout shows each as a sentence. */
 function sentence(text: string): string {
-  const t = text.charAt(0).toUpperCase() + text.slice(1);
+  const t = capitalise(text);
   return /[.!?]$/.test(t) ? t : `${t}.`;
 }

@@ -73,20 +73,32 @@ export interface ChangedSubtrees {
 export function changedSubtreeFigures(c: Comparison, oldResults: Results, newResults: Results, paper: Paper, nextFigure: () => string): ChangedSubtrees {
   const { inNew, inOld } = changeMarks(c);
   const newRoots = structuralFirst(newResults, inNew, subtreeRoots(newResults, inNew));
-  // Plans first, figure numbers after: a subtree past the budget takes no number.
+  // Plans first, figure numbers after: a subtree past the budget takes no number. Each side's
+  // diagram model is made once; a subtree past the budget is not laid out at all.
   const oldGates = new Set(oldResults.logic.gates.map((g) => g.id));
+  const newGates = new Map(newResults.logic.gates.map((g) => [g.id, g]));
+  const newBase = diagramModel(newResults);
+  let oldBase: DiagramModel | undefined;
   const drawn: { root: string; newPlan: SubtreePlan; oldPlan?: SubtreePlan }[] = [];
   const listed: ChangedSubtrees['listed'] = [];
   let budget = MAX_COMPARE_PARTS;
   for (const root of newRoots) {
-    const newPlan = subtreePlan(newResults, inNew, root, paper);
-    const oldPlan = oldGates.has(root) && hasRemovedBelow(oldResults, inOld, root) ? subtreePlan(oldResults, inOld, root, paper) : undefined;
+    const newModel = markedModel(newResults, newBase, inNew, root);
+    const list = () => listed.push({ root, title: newGates.get(root)?.title ?? '', marked: markedIn(newModel, inNew) });
+    if (budget === 0) {
+      list();
+      continue;
+    }
+    const newPlan = subtreePlan(newModel, inNew, root, paper);
+    const oldPlan =
+      oldGates.has(root) && hasRemovedBelow(oldResults, inOld, root)
+        ? subtreePlan(markedModel(oldResults, (oldBase ??= diagramModel(oldResults)), inOld, root), inOld, root, paper)
+        : undefined;
     const parts = newPlan.parts + (oldPlan?.parts ?? 0);
-    if (budget === 0 || parts > budget) {
+    if (parts > budget) {
       // The first subtree that does not fit ends the drawing, so the figures keep the reading order.
       budget = 0;
-      const gate = newResults.logic.gates.find((g) => g.id === root);
-      listed.push({ root, title: gate?.title ?? '', marked: newPlan.marked });
+      list();
       continue;
     }
     budget -= parts;
@@ -114,8 +126,10 @@ export function changedSubtreeFigures(c: Comparison, oldResults: Results, newRes
 
 /** Subtrees with a structural change (a node added, removed or re-wired) first, then the rest; each group in study order. */
 function structuralFirst(results: Results, marks: Map<string, Mark>, roots: string[]): string[] {
-  const structural = (root: string) => [...reachable(results.logic.gates, [root])].some((id) => marks.get(id) === 'NEW' || marks.get(id) === 'RE-WIRED') ||
-    results.logic.gates.find((g) => g.id === root)?.inputs.some((i) => marks.get(i) === 'NEW') === true;
+  const gates = new Map(results.logic.gates.map((g) => [g.id, g]));
+  const structural = (root: string) =>
+    [...reachable(results.logic.gates, [root])].some((id) => marks.get(id) === 'NEW' || marks.get(id) === 'RE-WIRED') ||
+    gates.get(root)?.inputs.some((i) => marks.get(i) === 'NEW') === true;
   const first = roots.filter(structural);
   const firstSet = new Set(first);
   return [...first, ...roots.filter((r) => !firstSet.has(r))];
@@ -140,8 +154,7 @@ function hasRemovedBelow(results: Results, marks: Map<string, Mark>, root: strin
 }
 
 /** The diagram model of one subtree: its gates only, titles carrying the marks, no top-event box. */
-function markedModel(results: Results, marks: Map<string, Mark>, root: string): DiagramModel {
-  const base = diagramModel(results);
+function markedModel(results: Results, base: DiagramModel, marks: Map<string, Mark>, root: string): DiagramModel {
   // Iterative (a chain of gates thousands deep is a valid study), in the study's gate order.
   const under = reachable(results.logic.gates, [root]);
   const gateIds = results.logic.gates.map((g) => g.id).filter((id) => under.has(id));
@@ -165,19 +178,22 @@ interface SubtreePlan {
   marked: [string, Mark][];
 }
 
-function subtreePlan(results: Results, marks: Map<string, Mark>, root: string, paper: Paper): SubtreePlan {
-  const model = markedModel(results, marks, root);
-  const capacity = capacityFor(paper);
-  // The subtree's own root first: the first figure carries the subtree's caption and its marks.
-  const trees = partition(model, capacity).sort((a, b) => Number(b.root === root) - Number(a.root === root));
+/** The marked nodes of a subtree (its gates and their inputs), in mark order. */
+function markedIn(model: DiagramModel, marks: Map<string, Mark>): [string, Mark][] {
   const inSubtree = new Set(model.gateIds);
   for (const g of model.gateIds) {
     const n = model.node(g);
     if (n.kind === 'gate') for (const i of n.inputs) inSubtree.add(i);
   }
-  const marked = [...marks.entries()].filter(([id]) => inSubtree.has(id));
+  return [...marks.entries()].filter(([id]) => inSubtree.has(id));
+}
+
+function subtreePlan(model: DiagramModel, marks: Map<string, Mark>, root: string, paper: Paper): SubtreePlan {
+  const capacity = capacityFor(paper);
+  // The subtree's own root first: the first figure carries the subtree's caption and its marks.
+  const trees = partition(model, capacity).sort((a, b) => Number(b.root === root) - Number(a.root === root));
   const parts = trees.reduce((sum, t) => sum + figurePartCount(t, capacity, model), 0);
-  return { model, capacity, trees, parts, marked };
+  return { model, capacity, trees, parts, marked: markedIn(model, marks) };
 }
 
 function subtreeFigures(plan: SubtreePlan, caption: string, nextFigure: () => string, idPrefix: string): FigureBlock[] {

@@ -8,7 +8,7 @@
  */
 import type { Results } from '../../analysis/results.js';
 import { callout, code, col, keyValues, listWords, para, row, strong, subheading, table, type Part } from '../../report/blocks.js';
-import { formatCount, formatNumber, formatProbability, formatQuantity, formatRatio, formatShare } from '../../report/format.js';
+import { capitalise, formatCount, formatNumber, formatProbability, formatQuantity, formatRatio, formatShare } from '../../report/format.js';
 import type { Appendix, Block, Paper, Section, TableRow } from '../../report/view.js';
 import type { Comparison } from '../compare.js';
 import { gateChangeText, gateLogic, parameterValue, revisionName, uncertaintyText } from '../describe.js';
@@ -59,7 +59,8 @@ export function buildComparisonView(c: Comparison, oldResults: Results, newResul
   }
   const o = c.old;
   const w = c.new;
-  const revisions = o.revision.trim() && w.revision.trim() ? `${o.revision} to ${w.revision}` : `${revisionName(c, 'old')} to ${revisionName(c, 'new')}`;
+  // Printed after "Rev." in the running header: the names, or old / new for a side without one.
+  const revisions = `${o.revision.trim() || 'old'} to ${w.revision.trim() || 'new'}`;
   return {
     format: 'faultbook-appendix/1',
     paper,
@@ -88,7 +89,6 @@ export function buildComparisonView(c: Comparison, oldResults: Results, newResul
 }
 
 const rev = (c: Comparison, side: 'old' | 'new') => capitalise(revisionName(c, side));
-const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
 
 function titleBlock(c: Comparison): Section {
   return {
